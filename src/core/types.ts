@@ -74,3 +74,49 @@ export function drain<T>(stage: Stage<T>): T {
     if (r.done) return r.value;
   }
 }
+
+/** Per-frequency figures of `swathe.summary/1` (ARCHITECTURE.md §3). */
+export interface FrequencySummary {
+  mhz: number;
+  wavelength_m: number;
+  redshift_21cm: number;
+  fwhm_deg: number;
+  sky_fraction_covered: number;
+  exposure_max_h: number;
+  exposure_median_h_covered: number;
+  /** usable hours with |b(zenith)| < band_deg + FWHM/2 */
+  usable_hours_beam_in_band: number;
+  /** added field: usable hours with the zenith within center_radius_deg + FWHM/2 of l=0,b=0 */
+  usable_hours_beam_near_center: number;
+}
+
+export interface HoursSummary { total: number; sun_down: number; earth_down: number | null; usable: number }
+export interface ZenithSummary { dec_min_deg: number; dec_max_deg: number; ecl_lat_min_deg: number; ecl_lat_max_deg: number }
+export interface GalacticSummary {
+  band_deg: number;
+  center_radius_deg: number;
+  usable_hours_zenith_in_band: number;
+  usable_hours_zenith_near_center: number;
+}
+
+export interface Summary {
+  format: 'swathe.summary/1';
+  scenario: Scenario;
+  step_min: number;
+  samples: number;
+  hours: HoursSummary;
+  zenith: ZenithSummary;
+  galactic: GalacticSummary;
+  frequencies: FrequencySummary[];
+}
+
+/** Everything a plan run produces; the UI and the exports read only this. */
+export interface PlanResult {
+  scenario: Scenario;
+  track: Track;
+  /** 1 where the sample is usable under the scenario's constraints. */
+  usable: Uint8Array;
+  /** Exposure in hours per HEALPix RING pixel at scenario.map.nside, one map per frequency (same order). */
+  maps: Float32Array[];
+  summary: Summary;
+}
