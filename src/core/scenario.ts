@@ -1,0 +1,618 @@
+import type { BeamModel, BodyName, FieldIssue, Scenario } from './types';
+import { parseUtcMs } from './time';
+import { fwhmRad } from './beam';
+
+// swathe.scenario/1 (ARCHITECTURE.md §3): the one validation layer every
+// entry uses (form, URL, JSON file, CLI, horizon-mask CSV). Pure: never
+// mutates or keeps its input, never throws, reports every problem it finds
+// (up to MAX_ISSUES) with the field, the allowed range and the value got.
+
+export const SCENARIO_FORMAT = 'swathe.scenario/1' as const;
+
+/** Stated limits of the format; the form, README and tests read them from here. */
+export const SCENARIO_LIMITS = {
+  name_max_chars: 200,
+  lat_deg: [-90, 90],
+  /** lon_deg: any finite number, normalised to [-180, 180). */
+  /** Span times: strict UTC ISO 8601 within these years (inclusive start, exclusive end). */
+  time_min: '1900-01-01T00:00:00Z',
+  time_max: '2200-01-01T00:00:00Z',
+  step_min: [0.01, 1440],
+  aperture_m: [1, 100_000],
+  frequencies_count: [1, 16],
+  frequency_mhz: [0.1, 100_000],
+  fwhm_factor: [0.5, 3],
+  /** The beam models are for beams narrower than this (FWHM at the lowest frequency). */
+  fwhm_max_deg: 90,
+  elev_deg: [-90, 90],
+  horizon_points: [1, 3600],
+  horizon_az_deg: [0, 360],
+  horizon_el_deg: [-90, 90],
+  nside: [8, 1024],
+  galactic_band_deg: [0, 90],
+  galactic_center_radius_deg: [0, 180],
+  /** Largest scenario text (JSON file, URL payload after decoding) accepted. */
+  text_max_bytes: 2_000_000,
+} as const;
+
+export const SCENARIO_DEFAULTS = {
+  name: '',
+  step_min: null,
+  beam: { model: 'gaussian' as BeamModel, fwhm_factor: 1.15 },
+  sun_max_elev_deg: 0,
+  /** 0 for Moon and Mars sites; null (no constraint) for an Earth site. */
+  earth_max_elev_deg: 0,
+  horizon_mask: null,
+  nside: 128,
+  galactic_band_deg: 10,
+  galactic_center_radius_deg: 20,
+} as const;
+
+/** Cap on reported problems so a huge hostile input gives a readable answer. */
+export const MAX_ISSUES = 20;
+
+export type ParseResult = { ok: true; scenario: Scenario } | { ok: false; issues: FieldIssue[] };
+
+/** Thrown by the CLI (and anyone who wants an exception); the message lists the issues. */
+export class ScenarioError extends Error {
+  readonly issues: FieldIssue[];
+  constructor(issues: FieldIssue[]) {
+    super(issues.map((i) => i.message).join('; '));
+    this.name = 'ScenarioError';
+    this.issues = issues;
+  }
+}
+
+const BODIES: readonly BodyName[] = ['moon', 'earth', 'mars'];
+const BEAM_MODELS: readonly BeamModel[] = ['gaussian', 'airy'];
+const RESERVED_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
+
+// ---------------------------------------------------------------- describing values
+
+/** A short, safe description of a value for a message (never the whole of a huge input). */
+export function describeValue(v: unknown): string {
+  if (v === undefined) return 'nothing';
+  if (v === null) return 'null';
+  if (typeof v === 'number') return Object.is(v, -0) ? '0' : String(v);
+  if (typeof v === 'boolean') return String(v);
+  if (typeof v === 'string') {
+    const cut = v.length > 40 ? v.slice(0, 37) : v;
+    const q = JSON.stringify(cut);
+    return v.length > 40 ? `${q.slice(0, -1)}..." (${v.length} characters)` : q;
+  }
+  if (Array.isArray(v)) return `a list of ${v.length} item${v.length === 1 ? '' : 's'}`;
+  if (typeof v === 'object') return 'an object';
+  return `a ${typeof v}`;
+}
+
+/** A key as it appears in a field path: plain names as is, anything odd quoted and cut short. */
+function keyLabel(k: string): string {
+  if (/^[A-Za-z_][A-Za-z0-9_]{0,39}$/.test(k)) return k;
+  return describeValue(k);
+}
+
+function fmtRange(r: readonly [number, number]): string {
+  return `between ${r[0]} and ${r[1]}`;
+}
+
+// ---------------------------------------------------------------- the collector
+
+class Issues {
+  readonly list: FieldIssue[] = [];
+  extra = 0;
+  add(field: string, message: string): void {
+    if (this.list.length < MAX_ISSUES) this.list.push({ field, message });
+    else this.extra++;
+  }
+  get count(): number {
+    return this.list.length + this.extra;
+  }
+  result(): FieldIssue[] {
+    if (this.extra === 0) return this.list;
+    return [...this.list, { field: '(input)', message: `and ${this.extra} more problem${this.extra === 1 ? '' : 's'}` }];
+  }
+}
+
+function isPlainObject(v: unknown): v is Record<string, unknown> {
+  if (v === null || typeof v !== 'object' || Array.isArray(v)) return false;
+  const proto = Object.getPrototypeOf(v);
+  return proto === Object.prototype || proto === null;
+}
+
+/**
+ * Reads an object's own data properties for the known keys into a fresh
+ * null-prototype record (so nothing of the input, and no inherited or
+ * reserved key, reaches the result), reporting unknown and reserved keys.
+ */
+function readObject(
+  iss: Issues,
+  path: string,
+  v: unknown,
+  known: readonly string[],
+): Record<string, unknown> | null {
+  if (!isPlainObject(v)) {
+    iss.add(path || '(input)', `${path || 'the scenario'} must be an object with the fields ${known.join(', ')}, got ${describeValue(v)}`);
+    return null;
+  }
+  const out: Record<string, unknown> = Object.create(null);
+  const prefix = path ? `${path}.` : '';
+  let unknownCount = 0;
+  for (const k of Object.keys(v)) {
+    const desc = Object.getOwnPropertyDescriptor(v, k);
+    if (RESERVED_KEYS.has(k)) {
+      iss.add(prefix + k, `${prefix}${k} is a reserved name and not allowed as a field`);
+    } else if (!known.includes(k)) {
+      // One line per unknown field, but not thousands of them.
+      if (unknownCount++ < 5) iss.add(prefix + keyLabel(k), `${prefix}${keyLabel(k)} is not a known field (known: ${known.join(', ')})`);
+      else iss.extra++;
+    } else if (!desc || !('value' in desc)) {
+      iss.add(prefix + k, `${prefix}${k} must be plain data, not a computed property`);
+    } else {
+      out[k] = desc.value;
+    }
+  }
+  return out;
+}
+
+function has(o: Record<string, unknown>, k: string): boolean {
+  return Object.prototype.hasOwnProperty.call(o, k);
+}
+
+/** A finite number in [lo, hi]; `undefined` when missing or wrong (issue recorded). */
+function num(iss: Issues, field: string, v: unknown, range: readonly [number, number] | null): number | undefined {
+  const what = range ? `a number ${fmtRange(range)}` : 'a finite number';
+  if (typeof v !== 'number') {
+    iss.add(field, v === undefined ? `${field} is required (${what})` : `${field} must be ${what}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  if (!Number.isFinite(v)) {
+    iss.add(field, `${field} must be ${what}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  if (range && (v < range[0] || v > range[1])) {
+    iss.add(field, `${field} must be ${fmtRange(range)}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  return v === 0 ? 0 : v; // no -0 (it would not survive a JSON round trip)
+}
+
+function oneOf<T extends string>(iss: Issues, field: string, v: unknown, allowed: readonly T[]): T | undefined {
+  if (typeof v === 'string' && (allowed as readonly string[]).includes(v)) return v as T;
+  const list = allowed.map((a) => `"${a}"`).join(', ');
+  iss.add(field, v === undefined ? `${field} is required (one of ${list})` : `${field} must be one of ${list}, got ${describeValue(v)}`);
+  return undefined;
+}
+
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+// eslint-disable-next-line no-control-regex
+const CONTROL_CHARS = /[\u0000-\u001f\u007f-\u009f]/;
+
+const TIME_MIN_MS = parseUtcMs(SCENARIO_LIMITS.time_min)!;
+const TIME_MAX_MS = parseUtcMs(SCENARIO_LIMITS.time_max)!;
+
+function utc(iss: Issues, field: string, v: unknown): number | undefined {
+  const like = 'a UTC time like "2031-01-01T00:00:00Z" (ISO 8601, ending in Z)';
+  if (typeof v !== 'string') {
+    iss.add(field, v === undefined ? `${field} is required (${like})` : `${field} must be ${like}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  const ms = v.length <= 40 ? parseUtcMs(v) : null;
+  if (ms === null) {
+    iss.add(field, `${field} must be ${like}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  // Check the written year too: Date.UTC reads years 0-99 as 1900-1999.
+  const year = Number(v.slice(0, 4));
+  if (ms < TIME_MIN_MS || ms > TIME_MAX_MS || year < 1900 || year > 2200) {
+    iss.add(field, `${field} must be between ${SCENARIO_LIMITS.time_min} and ${SCENARIO_LIMITS.time_max}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  return ms;
+}
+
+/** Longitude east-positive, any finite value, wrapped to [-180, 180); values already inside are kept bit for bit. */
+export function wrapLonDeg(lon: number): number {
+  if (lon >= -180 && lon < 180) return lon === 0 ? 0 : lon;
+  const w = (((lon + 180) % 360) + 360) % 360 - 180;
+  return w === 0 ? 0 : w;
+}
+
+export function isPowerOfTwo(n: number): boolean {
+  return Number.isInteger(n) && n > 0 && (n & (n - 1)) === 0;
+}
+
+// ---------------------------------------------------------------- horizon mask (shared with the CSV reader)
+
+/**
+ * Checks one horizon point. `where` names it in messages (e.g.
+ * `constraints.horizon_mask[3]` or `line 7`); `prevAz` is the previous
+ * point's azimuth (points must be in increasing azimuth).
+ */
+export function horizonPointIssues(where: string, az: unknown, el: unknown, prevAz: number | null): FieldIssue[] {
+  const iss = new Issues();
+  const a = num(iss, `${where} azimuth`, az, SCENARIO_LIMITS.horizon_az_deg);
+  num(iss, `${where} elevation`, el, SCENARIO_LIMITS.horizon_el_deg);
+  if (a !== undefined && prevAz !== null && !(a > prevAz)) {
+    iss.add(`${where} azimuth`, `${where} azimuth must be greater than the previous point's (${prevAz}), got ${describeValue(a)}: list points in increasing azimuth`);
+  }
+  return iss.list;
+}
+
+function horizonMask(iss: Issues, field: string, v: unknown): [number, number][] | null | undefined {
+  if (v === null || v === undefined) return null;
+  const [lo, hi] = SCENARIO_LIMITS.horizon_points;
+  if (!Array.isArray(v)) {
+    iss.add(field, `${field} must be null or a list of [azimuth_deg, elevation_deg] points, got ${describeValue(v)}`);
+    return undefined;
+  }
+  if (v.length < lo || v.length > hi) {
+    iss.add(field, `${field} must have ${lo} to ${hi} points (or be null), got ${v.length}`);
+    return undefined;
+  }
+  const out: [number, number][] = [];
+  let prevAz: number | null = null;
+  let bad = false;
+  for (let i = 0; i < v.length; i++) {
+    const p = v[i];
+    const where = `${field}[${i}]`;
+    if (!Array.isArray(p) || p.length !== 2) {
+      iss.add(where, `${where} must be a pair [azimuth_deg, elevation_deg], got ${describeValue(p)}`);
+      bad = true;
+      prevAz = null;
+      continue;
+    }
+    const found = horizonPointIssues(where, p[0], p[1], prevAz);
+    for (const f of found) iss.add(f.field, f.message);
+    if (found.length) {
+      bad = true;
+      prevAz = typeof p[0] === 'number' && Number.isFinite(p[0]) ? p[0] : null;
+      if (iss.count >= MAX_ISSUES) break;
+      continue;
+    }
+    out.push([p[0] === 0 ? 0 : p[0], p[1] === 0 ? 0 : p[1]]);
+    prevAz = p[0];
+  }
+  return bad ? undefined : out;
+}
+
+// ---------------------------------------------------------------- the scenario
+
+const TOP_KEYS = ['format', 'name', 'site', 'span', 'telescope', 'constraints', 'map'] as const;
+const SITE_KEYS = ['body', 'lat_deg', 'lon_deg'] as const;
+const SPAN_KEYS = ['start', 'end', 'step_min'] as const;
+const TELESCOPE_KEYS = ['aperture_m', 'frequencies_mhz', 'beam'] as const;
+const BEAM_KEYS = ['model', 'fwhm_factor'] as const;
+const CONSTRAINT_KEYS = ['sun_max_elev_deg', 'earth_max_elev_deg', 'horizon_mask'] as const;
+const MAP_KEYS = ['nside', 'galactic_band_deg', 'galactic_center_radius_deg'] as const;
+
+function optionalObject(iss: Issues, path: string, v: unknown, known: readonly string[]): Record<string, unknown> | null {
+  if (v === undefined) return Object.create(null);
+  return readObject(iss, path, v, known);
+}
+
+function parseUnsafe(input: unknown): ParseResult {
+  const iss = new Issues();
+  const top = readObject(iss, '', input, TOP_KEYS);
+  if (!top) return { ok: false, issues: iss.result() };
+
+  // format
+  if (top.format !== SCENARIO_FORMAT) {
+    iss.add('format', top.format === undefined
+      ? `format is required (must be "${SCENARIO_FORMAT}")`
+      : `format must be "${SCENARIO_FORMAT}", got ${describeValue(top.format)}`);
+  }
+
+  // name
+  let name: string = SCENARIO_DEFAULTS.name;
+  if (has(top, 'name')) {
+    const v = top.name;
+    if (typeof v !== 'string') iss.add('name', `name must be text (at most ${SCENARIO_LIMITS.name_max_chars} characters), got ${describeValue(v)}`);
+    else if (v.length > SCENARIO_LIMITS.name_max_chars) iss.add('name', `name must be at most ${SCENARIO_LIMITS.name_max_chars} characters, got ${v.length}`);
+    else if (CONTROL_CHARS.test(v) || LONE_SURROGATE.test(v)) iss.add('name', `name must be printable text without control characters or broken characters, got ${describeValue(v)}`);
+    else name = v;
+  }
+
+  // site
+  let body: BodyName | undefined;
+  let lat: number | undefined;
+  let lon: number | undefined;
+  const site = has(top, 'site') ? readObject(iss, 'site', top.site, SITE_KEYS) : (iss.add('site', 'site is required (an object with body, lat_deg, lon_deg)'), null);
+  if (site) {
+    body = oneOf(iss, 'site.body', site.body, BODIES);
+    lat = num(iss, 'site.lat_deg', site.lat_deg, SCENARIO_LIMITS.lat_deg);
+    const l = num(iss, 'site.lon_deg', site.lon_deg, null);
+    if (l !== undefined) lon = wrapLonDeg(l);
+  }
+
+  // span
+  let start: number | undefined;
+  let end: number | undefined;
+  let step: number | null | undefined = SCENARIO_DEFAULTS.step_min;
+  const span = has(top, 'span') ? readObject(iss, 'span', top.span, SPAN_KEYS) : (iss.add('span', 'span is required (an object with start, end and optionally step_min)'), null);
+  if (span) {
+    start = utc(iss, 'span.start', span.start);
+    end = utc(iss, 'span.end', span.end);
+    if (start !== undefined && end !== undefined && !(end > start)) {
+      iss.add('span.end', `span.end must be after span.start (${span.start as string}), got ${describeValue(span.end)}`);
+    }
+    if (span.step_min !== undefined && span.step_min !== null) {
+      const sr = SCENARIO_LIMITS.step_min;
+      if (typeof span.step_min !== 'number' || !Number.isFinite(span.step_min) || span.step_min < sr[0] || span.step_min > sr[1]) {
+        iss.add('span.step_min', `span.step_min must be null (automatic) or a number of minutes ${fmtRange(sr)}, got ${describeValue(span.step_min)}`);
+        step = undefined;
+      } else step = span.step_min;
+    }
+  }
+
+  // telescope
+  let aperture: number | undefined;
+  let freqs: number[] | undefined;
+  let model: BeamModel | undefined = SCENARIO_DEFAULTS.beam.model;
+  let factor: number | undefined = SCENARIO_DEFAULTS.beam.fwhm_factor;
+  const tel = has(top, 'telescope')
+    ? readObject(iss, 'telescope', top.telescope, TELESCOPE_KEYS)
+    : (iss.add('telescope', 'telescope is required (an object with aperture_m, frequencies_mhz and optionally beam)'), null);
+  if (tel) {
+    aperture = num(iss, 'telescope.aperture_m', tel.aperture_m, SCENARIO_LIMITS.aperture_m);
+    freqs = frequencies(iss, 'telescope.frequencies_mhz', tel.frequencies_mhz);
+    const beam = optionalObject(iss, 'telescope.beam', tel.beam, BEAM_KEYS);
+    if (!beam) model = factor = undefined;
+    else {
+      if (has(beam, 'model')) model = oneOf(iss, 'telescope.beam.model', beam.model, BEAM_MODELS);
+      if (has(beam, 'fwhm_factor')) factor = num(iss, 'telescope.beam.fwhm_factor', beam.fwhm_factor, SCENARIO_LIMITS.fwhm_factor);
+    }
+    if (aperture !== undefined && freqs !== undefined && model !== undefined && factor !== undefined) {
+      beamWidthCheck(iss, aperture, freqs, { model, fwhm_factor: factor });
+    }
+  }
+
+  // constraints
+  let sunMax: number | null | undefined = SCENARIO_DEFAULTS.sun_max_elev_deg;
+  let earthMax: number | null | undefined = body === 'earth' ? null : SCENARIO_DEFAULTS.earth_max_elev_deg;
+  let mask: [number, number][] | null | undefined = SCENARIO_DEFAULTS.horizon_mask;
+  const con = optionalObject(iss, 'constraints', top.constraints, CONSTRAINT_KEYS);
+  if (!con) sunMax = earthMax = mask = undefined;
+  else {
+    if (has(con, 'sun_max_elev_deg')) sunMax = nullableNum(iss, 'constraints.sun_max_elev_deg', con.sun_max_elev_deg, SCENARIO_LIMITS.elev_deg);
+    if (has(con, 'earth_max_elev_deg')) {
+      earthMax = nullableNum(iss, 'constraints.earth_max_elev_deg', con.earth_max_elev_deg, SCENARIO_LIMITS.elev_deg);
+      if (body === 'earth' && con.earth_max_elev_deg !== null) {
+        iss.add('constraints.earth_max_elev_deg', `constraints.earth_max_elev_deg must be null for a site on the Earth, got ${describeValue(con.earth_max_elev_deg)}`);
+        earthMax = undefined;
+      }
+    }
+    if (has(con, 'horizon_mask')) mask = horizonMask(iss, 'constraints.horizon_mask', con.horizon_mask);
+  }
+
+  // map
+  let nside: number | undefined = SCENARIO_DEFAULTS.nside;
+  let band: number | undefined = SCENARIO_DEFAULTS.galactic_band_deg;
+  let radius: number | undefined = SCENARIO_DEFAULTS.galactic_center_radius_deg;
+  const map = optionalObject(iss, 'map', top.map, MAP_KEYS);
+  if (!map) nside = band = radius = undefined;
+  else {
+    if (has(map, 'nside')) {
+      const [lo, hi] = SCENARIO_LIMITS.nside;
+      const v = map.nside;
+      if (typeof v !== 'number' || !isPowerOfTwo(v) || v < lo || v > hi) {
+        iss.add('map.nside', `map.nside must be a power of two between ${lo} and ${hi} (8, 16, 32, ..., 1024), got ${describeValue(v)}`);
+        nside = undefined;
+      } else nside = v;
+    }
+    if (has(map, 'galactic_band_deg')) band = num(iss, 'map.galactic_band_deg', map.galactic_band_deg, SCENARIO_LIMITS.galactic_band_deg);
+    if (has(map, 'galactic_center_radius_deg')) radius = num(iss, 'map.galactic_center_radius_deg', map.galactic_center_radius_deg, SCENARIO_LIMITS.galactic_center_radius_deg);
+  }
+
+  if (iss.count > 0) return { ok: false, issues: iss.result() };
+  const s: Scenario = {
+    format: SCENARIO_FORMAT,
+    name,
+    site: { body: body!, lat_deg: lat!, lon_deg: lon! },
+    span: { start: span!.start as string, end: span!.end as string, step_min: step! },
+    telescope: { aperture_m: aperture!, frequencies_mhz: freqs!, beam: { model: model!, fwhm_factor: factor! } },
+    constraints: { sun_max_elev_deg: sunMax!, earth_max_elev_deg: earthMax!, horizon_mask: mask! },
+    map: { nside: nside!, galactic_band_deg: band!, galactic_center_radius_deg: radius! },
+  };
+  return { ok: true, scenario: s };
+}
+
+function nullableNum(iss: Issues, field: string, v: unknown, range: readonly [number, number]): number | null | undefined {
+  if (v === null) return null;
+  if (typeof v !== 'number' || !Number.isFinite(v) || v < range[0] || v > range[1]) {
+    iss.add(field, `${field} must be null (no constraint) or a number of degrees ${fmtRange(range)}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  return v === 0 ? 0 : v;
+}
+
+function frequencies(iss: Issues, field: string, v: unknown): number[] | undefined {
+  const [nlo, nhi] = SCENARIO_LIMITS.frequencies_count;
+  const fr = SCENARIO_LIMITS.frequency_mhz;
+  if (!Array.isArray(v)) {
+    iss.add(field, v === undefined
+      ? `${field} is required (a list of ${nlo} to ${nhi} frequencies in MHz, each ${fmtRange(fr)})`
+      : `${field} must be a list of ${nlo} to ${nhi} frequencies in MHz, got ${describeValue(v)}`);
+    return undefined;
+  }
+  if (v.length < nlo || v.length > nhi) {
+    iss.add(field, `${field} must have ${nlo} to ${nhi} frequencies, got ${v.length}`);
+    return undefined;
+  }
+  const out: number[] = [];
+  let bad = false;
+  for (let i = 0; i < v.length; i++) {
+    const f = num(iss, `${field}[${i}]`, v[i], fr);
+    if (f === undefined) { bad = true; continue; }
+    const j = out.indexOf(f);
+    if (j >= 0) {
+      iss.add(`${field}[${i}]`, `${field}[${i}] repeats ${f} MHz (already at [${j}]); give each frequency once`);
+      bad = true;
+    }
+    out.push(f);
+  }
+  return bad ? undefined : out;
+}
+
+function beamWidthCheck(iss: Issues, aperture: number, freqs: number[], beam: { model: BeamModel; fwhm_factor: number }): void {
+  const fmin = Math.min(...freqs);
+  const fwhmDeg = (fwhmRad(fmin, aperture, beam) * 180) / Math.PI;
+  const maxDeg = SCENARIO_LIMITS.fwhm_max_deg;
+  if (fwhmDeg > maxDeg) {
+    const needM = (aperture * fwhmDeg) / maxDeg;
+    iss.add('telescope.aperture_m',
+      `telescope.aperture_m of ${aperture} m gives a beam ${sig3(fwhmDeg)} degrees wide (FWHM) at ${fmin} MHz; ` +
+      `the beam models need at most ${maxDeg} degrees: use an aperture of at least ${sig3(needM)} m or raise the lowest frequency`);
+  }
+}
+
+function sig3(x: number): string {
+  return x >= 100 ? String(Math.round(x)) : String(Number(x.toPrecision(3)));
+}
+
+/** Validates and normalises anything (a parsed JSON value, a form's object, ...). Never throws. */
+export function parseScenario(input: unknown): ParseResult {
+  try {
+    return parseUnsafe(input);
+  } catch (e) {
+    // Only a hostile object (a Proxy, a throwing getter) gets here.
+    return { ok: false, issues: [{ field: '(input)', message: `the scenario could not be read as plain data (${errText(e)})` }] };
+  }
+}
+
+function errText(e: unknown): string {
+  try {
+    return e instanceof Error ? e.message.slice(0, 200) : describeValue(e);
+  } catch {
+    return 'unreadable error';
+  }
+}
+
+// ---------------------------------------------------------------- text, bytes, JSON
+
+/** Turns a JSON.parse error into "... at line L, column C" without echoing the input. */
+function jsonErrorText(e: unknown, text: string): string {
+  let msg = e instanceof Error ? e.message : 'not valid JSON';
+  msg = msg.replace(/, "(?:[^"\\]|\\.)*" is not valid JSON$/, '').replace(/^JSON\.parse: /, '');
+  const m = / in JSON at position (\d+)/.exec(msg);
+  if (m) {
+    const pos = Number(m[1]);
+    const before = text.slice(0, pos);
+    const line = before.split('\n').length;
+    const col = pos - before.lastIndexOf('\n');
+    msg = msg.replace(/ in JSON at position \d+.*$/, '') + ` at line ${line}, column ${col}`;
+  }
+  return msg.slice(0, 160);
+}
+
+/** Parses scenario JSON text; bad JSON is an issue with field '(file)'. Never throws. */
+export function parseScenarioJson(text: string, field = '(file)'): ParseResult {
+  if (typeof text !== 'string') return { ok: false, issues: [{ field, message: `${field}: expected text, got ${describeValue(text)}` }] };
+  const max = SCENARIO_LIMITS.text_max_bytes;
+  if (text.length > max) {
+    return { ok: false, issues: [{ field, message: `${field}: a scenario must be at most ${max} bytes of JSON, got ${text.length} characters` }] };
+  }
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text; // a byte-order mark is harmless
+  if (body.trim() === '') return { ok: false, issues: [{ field, message: `${field}: is empty (expected a swathe.scenario/1 JSON object)` }] };
+  let value: unknown;
+  try {
+    value = JSON.parse(body);
+  } catch (e) {
+    return { ok: false, issues: [{ field, message: `${field}: not valid JSON: ${jsonErrorText(e, body)}` }] };
+  }
+  return parseScenario(value);
+}
+
+/** Parses a scenario file's bytes: must be UTF-8 (no invalid sequences) and within the size limit. */
+export function parseScenarioBytes(bytes: Uint8Array, field = '(file)'): ParseResult {
+  const max = SCENARIO_LIMITS.text_max_bytes;
+  if (bytes.length > max) {
+    return { ok: false, issues: [{ field, message: `${field}: a scenario must be at most ${max} bytes, got ${bytes.length}` }] };
+  }
+  let text: string;
+  try {
+    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    return { ok: false, issues: [{ field, message: `${field}: is not UTF-8 text (save the scenario as UTF-8 JSON)` }] };
+  }
+  return parseScenarioJson(text, field);
+}
+
+/** Canonical JSON of a validated scenario: 2-space indent, fields in format order. */
+export function scenarioToJson(s: Scenario): string {
+  return JSON.stringify(canonical(s), null, 2) + '\n';
+}
+
+/** A copy with keys in the format's order (JSON output is then stable whatever built the object). */
+export function canonical(s: Scenario): Scenario {
+  return {
+    format: s.format,
+    name: s.name,
+    site: { body: s.site.body, lat_deg: s.site.lat_deg, lon_deg: s.site.lon_deg },
+    span: { start: s.span.start, end: s.span.end, step_min: s.span.step_min },
+    telescope: {
+      aperture_m: s.telescope.aperture_m,
+      frequencies_mhz: [...s.telescope.frequencies_mhz],
+      beam: { model: s.telescope.beam.model, fwhm_factor: s.telescope.beam.fwhm_factor },
+    },
+    constraints: {
+      sun_max_elev_deg: s.constraints.sun_max_elev_deg,
+      earth_max_elev_deg: s.constraints.earth_max_elev_deg,
+      horizon_mask: s.constraints.horizon_mask ? s.constraints.horizon_mask.map(([a, e]) => [a, e] as [number, number]) : null,
+    },
+    map: { nside: s.map.nside, galactic_band_deg: s.map.galactic_band_deg, galactic_center_radius_deg: s.map.galactic_center_radius_deg },
+  };
+}
+
+// ---------------------------------------------------------------- URL codec
+
+// URL form: base64url (RFC 4648 §5, no padding) of the compact UTF-8 JSON.
+// Works the same in the browser and Node (btoa/atob, TextEncoder/Decoder).
+
+/** Longest URL parameter accepted (the largest scenario text, base64-expanded). */
+export const URL_PARAM_MAX_CHARS = Math.ceil((SCENARIO_LIMITS.text_max_bytes * 4) / 3) + 4;
+
+function bytesToBase64Url(bytes: Uint8Array): string {
+  let bin = '';
+  for (let i = 0; i < bytes.length; i += 0x8000) bin += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  return btoa(bin).replace(/\+/g, '-').replace(/\//g, '_').replace(/=+$/, '');
+}
+
+export function encodeScenarioParam(s: Scenario): string {
+  return bytesToBase64Url(new TextEncoder().encode(JSON.stringify(canonical(s))));
+}
+
+/** Decodes a URL parameter made by encodeScenarioParam, with the same validation. Never throws. */
+export function decodeScenarioParam(str: string): ParseResult {
+  const field = '(url)';
+  if (typeof str !== 'string' || str.length === 0) {
+    return { ok: false, issues: [{ field, message: `${field}: the link holds no scenario` }] };
+  }
+  if (str.length > URL_PARAM_MAX_CHARS) {
+    return { ok: false, issues: [{ field, message: `${field}: the link's scenario is too long (${str.length} characters, at most ${URL_PARAM_MAX_CHARS})` }] };
+  }
+  if (!/^[A-Za-z0-9_-]+$/.test(str) || str.length % 4 === 1) {
+    return { ok: false, issues: [{ field, message: `${field}: the link's scenario is damaged (not base64url text); copy the whole link again` }] };
+  }
+  let bytes: Uint8Array;
+  try {
+    const b64 = str.replace(/-/g, '+').replace(/_/g, '/') + '='.repeat((4 - (str.length % 4)) % 4);
+    const bin = atob(b64);
+    bytes = new Uint8Array(bin.length);
+    for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
+  } catch {
+    return { ok: false, issues: [{ field, message: `${field}: the link's scenario is damaged (not base64url text); copy the whole link again` }] };
+  }
+  return parseScenarioBytes(bytes, field);
+}
+
+// ---------------------------------------------------------------- form helper
+
+/**
+ * For form inputs: a text box's content as a number when it is one, else the
+ * text itself (so the message shows what was typed, e.g. got "12,5").
+ */
+export function formNumber(text: string): number | string {
+  const t = text.trim();
+  if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return Number(t);
+  return text;
+}
