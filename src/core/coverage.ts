@@ -1,0 +1,409 @@
+// Hit maps and exposure maps (ARCHITECTURE.md §2).
+//
+// Exposure of pixel p: the integral over usable time of B(angle(p, zenith(t))),
+// in hours. Done in two parts so the cost grows with the number of samples
+// only through the cheap one:
+//   1. hit map: every usable sample's interval is walked along the path from
+//      its zenith to the next one in sub-steps no longer than half a fine
+//      pixel, and its hours are binned on a fine NESTED HEALPix grid, together
+//      with the hours-weighted sum of the directions (so each pixel also
+//      knows where inside it the time was spent: its centroid);
+//   2. exposure: the hit map is degraded (NESTED: a parent is the sum of its
+//      four children) to a resolution suited to each beam, and every hit
+//      pixel's hours are spread once over the output RING pixels within the
+//      beam's cutoff, at the pixel's centroid.
+// Putting the time at the centroid instead of the pixel centre keeps a thin
+// track thin (the centroid of a straight piece of path lies on it), so the
+// hit pixels can be several times coarser than the beam needs.
+
+import type { Stage, Track } from './types';
+import { drain } from './types';
+import { nside2npix, nside2resolRad, pix2vecNest, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
+
+export const MAX_HIT_NSIDE = 8192;
+/** Hit pixels for the shared fine map: resolution at most FWHM_min / this. */
+export const FINE_HIT_PER_FWHM = 10;
+/** Hit pixels used for a beam's exposure: resolution at most FWHM / this. */
+export const EXPOSURE_HIT_PER_FWHM = 8;
+/** Hit pixels used for the covered-sky test: resolution at most (FWHM/2) / this. */
+export const COVER_HIT_PER_RADIUS = 8;
+
+/** What the exposure needs of a beam: its width, where it drops below 1e-3, and its power. */
+export interface BeamProfile {
+  fwhmRad: number;
+  /** B < 1e-3 everywhere beyond this angle (contributions there are dropped). */
+  cutoffRad: number;
+  /** Normalised power (1 on axis) at an angle from the axis, radians. */
+  powerAt(thetaRad: number): number;
+}
+
+/** Usable hours binned on a NESTED HEALPix grid; only pixels with time in them are listed. */
+export interface HitMap {
+  nside: number;
+  /** NESTED pixel indices, ascending. */
+  pix: Float64Array;
+  hours: Float64Array;
+  /** Hours-weighted sums of the path direction inside each pixel (centroid = their direction). */
+  sx: Float64Array;
+  sy: Float64Array;
+  sz: Float64Array;
+  totalHours: number;
+}
+
+/** Smallest power-of-two nside (1..MAX_HIT_NSIDE) whose pixel size (sqrt of area) is at most maxResolRad. */
+export function nsideForResolution(maxResolRad: number): number {
+  let nside = 1;
+  while (nside < MAX_HIT_NSIDE && nside2resolRad(nside) > maxResolRad) nside *= 2;
+  return nside;
+}
+
+/** The fine hit map's nside for a set of beams: fine enough for the narrowest one. */
+export function hitNsideFor(fwhmMinRad: number): number {
+  return nsideForResolution(fwhmMinRad / FINE_HIT_PER_FWHM);
+}
+
+/**
+ * The end of sample i's path: the next sample's zenith, or for the last one
+ * the zenith carried on at the same rate for the rest of its (possibly short)
+ * interval. Written into out[0..2] (not normalised).
+ */
+function segmentEnd(track: Track, i: number, out: Float64Array): void {
+  const { zx, zy, zz, n } = track;
+  if (i + 1 < n) {
+    out[0] = zx[i + 1]; out[1] = zy[i + 1]; out[2] = zz[i + 1];
+  } else if (n >= 2) {
+    const f = track.weight_h[i] / (track.step_min / 60);
+    out[0] = zx[i] + (zx[i] - zx[i - 1]) * f;
+    out[1] = zy[i] + (zy[i] - zy[i - 1]) * f;
+    out[2] = zz[i] + (zz[i] - zz[i - 1]) * f;
+  } else {
+    out[0] = zx[i]; out[1] = zy[i]; out[2] = zz[i];
+  }
+}
+
+/**
+ * Walks the usable part of the path: calls visit(x, y, z, hours) for points
+ * spaced at most maxStepRad apart (midpoints of equal sub-intervals of each
+ * sample's interval), yielding progress every ~50k points.
+ */
+function* walkPath(
+  track: Track,
+  usable: Uint8Array,
+  maxStepRad: number,
+  visit: (x: number, y: number, z: number, hours: number) => void,
+): Generator<number, void, void> {
+  const { zx, zy, zz, weight_h, n } = track;
+  const e = new Float64Array(3);
+  let work = 0;
+  for (let i = 0; i < n; i++) {
+    if (!usable[i]) continue;
+    const w = weight_h[i];
+    if (!(w > 0)) continue;
+    segmentEnd(track, i, e);
+    const ax = zx[i], ay = zy[i], az = zz[i];
+    const dx = e[0] - ax, dy = e[1] - ay, dz = e[2] - az;
+    const chord = Math.sqrt(dx * dx + dy * dy + dz * dz);
+    const k = Math.max(1, Math.ceil(chord / maxStepRad));
+    const wk = w / k;
+    for (let j = 0; j < k; j++) {
+      const t = (j + 0.5) / k;
+      let x = ax + dx * t, y = ay + dy * t, z = az + dz * t;
+      const r = 1 / Math.sqrt(x * x + y * y + z * z);
+      x *= r; y *= r; z *= r;
+      visit(x, y, z, wk);
+    }
+    work += k + 1;
+    if (work >= 50_000) {
+      work = 0;
+      yield i / n;
+    }
+  }
+}
+
+const PAGE_BITS = 10;
+const PAGE = 1 << PAGE_BITS;
+
+/**
+ * Bins the usable time of the track on a NESTED grid at opts.nside, treating
+ * the track as a continuous path (sub-steps of at most half a pixel between
+ * consecutive zeniths, so no pixel the path crosses is skipped).
+ */
+export function* hitMapStage(track: Track, usable: Uint8Array, opts: { nside: number }): Stage<HitMap> {
+  const nside = opts.nside;
+  if (!Number.isInteger(Math.log2(nside)) || nside < 1 || nside > MAX_HIT_NSIDE) {
+    throw new RangeError(`hit map nside must be a power of two between 1 and ${MAX_HIT_NSIDE}, got ${nside}`);
+  }
+  if (usable.length !== track.n) throw new RangeError(`usable mask has ${usable.length} entries, track has ${track.n}`);
+  // Paged accumulator: a track touches a thin band of a fine grid, and NESTED
+  // indices of nearby pixels are close, so pages of 1024 pixels stay few.
+  const pages: (Float64Array | undefined)[] = new Array(Math.ceil(nside2npix(nside) / PAGE));
+  const maxStep = nside2resolRad(nside) / 2;
+  yield* walkPath(track, usable, maxStep, (x, y, z, h) => {
+    const p = vec2pixNest(nside, x, y, z);
+    const pi = p >>> PAGE_BITS;
+    let page = pages[pi];
+    if (page === undefined) pages[pi] = page = new Float64Array(4 * PAGE);
+    const o = (p & (PAGE - 1)) * 4;
+    page[o] += h;
+    page[o + 1] += h * x;
+    page[o + 2] += h * y;
+    page[o + 3] += h * z;
+  });
+  let count = 0;
+  for (const page of pages) {
+    if (page === undefined) continue;
+    for (let o = 0; o < 4 * PAGE; o += 4) if (page[o] > 0) count++;
+  }
+  const hit: HitMap = {
+    nside,
+    pix: new Float64Array(count),
+    hours: new Float64Array(count),
+    sx: new Float64Array(count),
+    sy: new Float64Array(count),
+    sz: new Float64Array(count),
+    totalHours: 0,
+  };
+  let k = 0;
+  for (let pi = 0; pi < pages.length; pi++) {
+    const page = pages[pi];
+    if (page === undefined) continue;
+    for (let o = 0; o < 4 * PAGE; o += 4) {
+      if (!(page[o] > 0)) continue;
+      hit.pix[k] = pi * PAGE + o / 4;
+      hit.hours[k] = page[o];
+      hit.sx[k] = page[o + 1];
+      hit.sy[k] = page[o + 2];
+      hit.sz[k] = page[o + 3];
+      hit.totalHours += page[o];
+      k++;
+    }
+  }
+  return hit;
+}
+
+/** The same hit map on a coarser NESTED grid: each parent pixel sums its children. */
+export function degradeHitMap(hit: HitMap, nside: number): HitMap {
+  if (nside === hit.nside) return hit;
+  if (!(nside < hit.nside) || !Number.isInteger(Math.log2(nside))) {
+    throw new RangeError(`can only degrade a hit map to a coarser power-of-two nside (from ${hit.nside}), got ${nside}`);
+  }
+  const div = (hit.nside / nside) ** 2;
+  const n = hit.pix.length;
+  // Children of one parent are consecutive in NESTED order, so one pass merges them.
+  let count = 0;
+  let last = -1;
+  for (let i = 0; i < n; i++) {
+    const p = Math.floor(hit.pix[i] / div);
+    if (p !== last) { count++; last = p; }
+  }
+  const out: HitMap = {
+    nside,
+    pix: new Float64Array(count),
+    hours: new Float64Array(count),
+    sx: new Float64Array(count),
+    sy: new Float64Array(count),
+    sz: new Float64Array(count),
+    totalHours: hit.totalHours,
+  };
+  let k = -1;
+  last = -1;
+  for (let i = 0; i < n; i++) {
+    const p = Math.floor(hit.pix[i] / div);
+    if (p !== last) { k++; last = p; out.pix[k] = p; }
+    out.hours[k] += hit.hours[i];
+    out.sx[k] += hit.sx[i];
+    out.sy[k] += hit.sy[i];
+    out.sz[k] += hit.sz[i];
+  }
+  return out;
+}
+
+/** Where the hit pixel's time was spent: its centroid direction, or its centre if the sums cancel. */
+function centroid(hit: HitMap, k: number, out: Float64Array): void {
+  const x = hit.sx[k], y = hit.sy[k], z = hit.sz[k];
+  const r = Math.sqrt(x * x + y * y + z * z);
+  if (r > 1e-12 * hit.hours[k]) {
+    out[0] = x / r; out[1] = y / r; out[2] = z / r;
+  } else {
+    const c = pix2vecNest(hit.nside, hit.pix[k]);
+    out[0] = c[0]; out[1] = c[1]; out[2] = c[2];
+  }
+}
+
+/** The beam tabulated against u = 1 - cos(theta) on [0, 1 - cos(cutoff)], for linear interpolation. */
+export function beamTable(beam: BeamProfile, size = 8192): { uMax: number; scale: number; values: Float64Array } {
+  const uMax = 1 - Math.cos(beam.cutoffRad);
+  const values = new Float64Array(size + 2);
+  for (let i = 0; i <= size + 1; i++) {
+    const u = Math.min(uMax, (i / size) * uMax);
+    values[i] = beam.powerAt(Math.acos(1 - u));
+  }
+  return { uMax, scale: size / uMax, values };
+}
+
+function checkOutputNside(nside: number): void {
+  if (!Number.isInteger(Math.log2(nside)) || nside < 1 || nside > MAX_HIT_NSIDE) {
+    throw new RangeError(`map nside must be a power of two between 1 and ${MAX_HIT_NSIDE}, got ${nside}`);
+  }
+}
+
+function checkBeam(beam: BeamProfile): void {
+  if (!(beam.fwhmRad > 0) || !(beam.cutoffRad > 0) || !(beam.cutoffRad <= Math.PI)) {
+    throw new RangeError(`beam needs fwhmRad > 0 and 0 < cutoffRad <= pi, got ${beam.fwhmRad}, ${beam.cutoffRad}`);
+  }
+}
+
+/**
+ * Exposure in hours per RING pixel at `nside`: each hit pixel (degraded to a
+ * resolution of about FWHM/8) spreads its hours over the output pixels whose
+ * centres lie within the beam's cutoff of its centroid, weighted by B.
+ */
+export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number): Stage<Float32Array> {
+  checkOutputNside(nside);
+  checkBeam(beam);
+  const level = Math.min(hit.nside, nsideForResolution(beam.fwhmRad / EXPOSURE_HIT_PER_FWHM));
+  const h = degradeHitMap(hit, level);
+  const centres = pixelCentersRing(nside);
+  const { uMax, scale, values } = beamTable(beam);
+  const acc = new Float64Array(nside2npix(nside));
+  const c = new Float64Array(3);
+  const n = h.pix.length;
+  let work = 0;
+  for (let k = 0; k < n; k++) {
+    centroid(h, k, c);
+    const cx = c[0], cy = c[1], cz = c[2];
+    const w = h.hours[k];
+    const ranges = queryDiscRingRanges(nside, cx, cy, cz, beam.cutoffRad, false);
+    for (let r = 0; r < ranges.length; r += 2) {
+      const end = ranges[r + 1];
+      for (let q = ranges[r]; q < end; q++) {
+        const u = 1 - (cx * centres[3 * q] + cy * centres[3 * q + 1] + cz * centres[3 * q + 2]);
+        if (u >= uMax) continue;
+        const f = (u > 0 ? u : 0) * scale;
+        const i0 = f | 0;
+        acc[q] += w * (values[i0] + (values[i0 + 1] - values[i0]) * (f - i0));
+      }
+      work += end - ranges[r];
+    }
+    work += 20;
+    if (work >= 50_000) {
+      work = 0;
+      yield k / n;
+    }
+  }
+  return Float32Array.from(acc);
+}
+
+/**
+ * Pixels (RING, at `nside`) whose centre came within radiusRad of the usable
+ * path: a hit pixel at about radius/8 resolution marks the output pixels
+ * within radiusRad of its centroid. 1 = covered.
+ */
+export function* coveredStage(hit: HitMap, radiusRad: number, nside: number): Stage<Uint8Array> {
+  checkOutputNside(nside);
+  if (!(radiusRad > 0)) throw new RangeError(`coverage radius must be > 0, got ${radiusRad}`);
+  const level = Math.min(hit.nside, nsideForResolution(radiusRad / COVER_HIT_PER_RADIUS));
+  const h = degradeHitMap(hit, level);
+  const mask = new Uint8Array(nside2npix(nside));
+  const c = new Float64Array(3);
+  const n = h.pix.length;
+  let work = 0;
+  for (let k = 0; k < n; k++) {
+    centroid(h, k, c);
+    const ranges = queryDiscRingRanges(nside, c[0], c[1], c[2], radiusRad, false);
+    for (let r = 0; r < ranges.length; r += 2) {
+      mask.fill(1, ranges[r], ranges[r + 1]);
+      work += ranges[r + 1] - ranges[r];
+    }
+    work += 20;
+    if (work >= 50_000) {
+      work = 0;
+      yield k / n;
+    }
+  }
+  return mask;
+}
+
+/**
+ * The naive exact exposure for the benchmark and the tests: the beam is
+ * evaluated directly (no table) around every point of the path at the output
+ * resolution, with `subSteps` equal sub-intervals per sample (1 = the middle
+ * of each sample's interval).
+ */
+export function* naiveExposureStage(
+  track: Track,
+  usable: Uint8Array,
+  beam: BeamProfile,
+  nside: number,
+  opts: { subSteps?: number } = {},
+): Stage<Float32Array> {
+  checkOutputNside(nside);
+  checkBeam(beam);
+  const sub = opts.subSteps ?? 1;
+  const centres = pixelCentersRing(nside);
+  const acc = new Float64Array(nside2npix(nside));
+  const { zx, zy, zz, weight_h, n } = track;
+  const e = new Float64Array(3);
+  let work = 0;
+  for (let i = 0; i < n; i++) {
+    if (!usable[i] || !(weight_h[i] > 0)) continue;
+    segmentEnd(track, i, e);
+    const ax = zx[i], ay = zy[i], az = zz[i];
+    const dx = e[0] - ax, dy = e[1] - ay, dz = e[2] - az;
+    const wk = weight_h[i] / sub;
+    for (let j = 0; j < sub; j++) {
+      const t = (j + 0.5) / sub;
+      let x = ax + dx * t, y = ay + dy * t, z = az + dz * t;
+      const r = 1 / Math.sqrt(x * x + y * y + z * z);
+      x *= r; y *= r; z *= r;
+      const ranges = queryDiscRingRanges(nside, x, y, z, beam.cutoffRad, false);
+      for (let r = 0; r < ranges.length; r += 2) {
+        const end = ranges[r + 1];
+        for (let q = ranges[r]; q < end; q++) {
+          const cos = x * centres[3 * q] + y * centres[3 * q + 1] + z * centres[3 * q + 2];
+          acc[q] += wk * beam.powerAt(Math.acos(Math.min(1, cos)));
+        }
+        work += end - ranges[r];
+      }
+      work += 20;
+    }
+    if (work >= 50_000) {
+      work = 0;
+      yield i / n;
+    }
+  }
+  return Float32Array.from(acc);
+}
+
+export function naiveExposure(
+  track: Track,
+  usable: Uint8Array,
+  beam: BeamProfile,
+  nside: number,
+  opts: { subSteps?: number } = {},
+): Float32Array {
+  return drain(naiveExposureStage(track, usable, beam, nside, opts));
+}
+
+export function hitMap(track: Track, usable: Uint8Array, opts: { nside: number }): HitMap {
+  return drain(hitMapStage(track, usable, opts));
+}
+
+export function exposureMap(hit: HitMap, beam: BeamProfile, nside: number): Float32Array {
+  return drain(exposureStage(hit, beam, nside));
+}
+
+export function coveredMask(hit: HitMap, radiusRad: number, nside: number): Uint8Array {
+  return drain(coveredStage(hit, radiusRad, nside));
+}
+
+/** Relative L1 difference sum|a - b| / sum|b| (b the reference). */
+export function relativeL1(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  if (a.length !== b.length) throw new RangeError(`maps differ in length: ${a.length} vs ${b.length}`);
+  let num = 0, den = 0;
+  for (let i = 0; i < a.length; i++) {
+    num += Math.abs(a[i] - b[i]);
+    den += Math.abs(b[i]);
+  }
+  return den > 0 ? num / den : num;
+}

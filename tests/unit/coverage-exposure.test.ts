@@ -1,0 +1,155 @@
+import { describe, expect, it } from 'vitest';
+import {
+  coveredMask,
+  degradeHitMap,
+  exposureMap,
+  hitMap,
+  hitNsideFor,
+  naiveExposure,
+  relativeL1,
+} from '../../src/core/coverage';
+import { nside2npix, nside2pixareaSr, pixelCentersRing } from '../../src/core/healpix';
+import { blockMask, gaussianProfile, smallCircleTrack, usableHours } from './coverage-fixtures';
+
+const DEG = Math.PI / 180;
+
+function sum(a: ArrayLike<number>): number {
+  let s = 0;
+  for (let i = 0; i < a.length; i++) s += a[i];
+  return s;
+}
+
+describe('hit map', () => {
+  const track = smallCircleTrack({ decDeg: -35, rateDegPerH: 0.55, stepMin: 20, spanH: 24 * 30, wobbleDeg: 1.5, wobblePeriodH: 24 * 9 });
+  const usable = blockMask(track.n, 40, 25);
+
+  it('bins exactly the usable hours, and a degraded map keeps every parent equal to the sum of its children', () => {
+    const hit = hitMap(track, usable, { nside: 512 });
+    expect(hit.totalHours).toBeCloseTo(usableHours(track, usable), 9);
+    expect(sum(hit.hours)).toBeCloseTo(usableHours(track, usable), 9);
+    const coarse = degradeHitMap(hit, 64);
+    expect(sum(coarse.hours)).toBeCloseTo(sum(hit.hours), 9);
+    // NESTED: parent of p at 8x coarser nside is floor(p / 64)
+    const byParent = new Map<number, number>();
+    for (let i = 0; i < hit.pix.length; i++) {
+      const p = Math.floor(hit.pix[i] / 64);
+      byParent.set(p, (byParent.get(p) ?? 0) + hit.hours[i]);
+    }
+    expect(coarse.pix.length).toBe(byParent.size);
+    for (let k = 0; k < coarse.pix.length; k++) expect(coarse.hours[k]).toBeCloseTo(byParent.get(coarse.pix[k])!, 9);
+  });
+
+  it('leaves no gap between samples: every fine pixel along a coarsely sampled path gets time', () => {
+    // zenith moves 5 degrees per 60-min sample along the equator; at nside 256
+    // (0.23 deg pixels) the path crosses ~1560 pixels around the circle
+    const t = smallCircleTrack({ decDeg: 0, rateDegPerH: 5, stepMin: 60, spanH: 72 });
+    const hit = hitMap(t, new Uint8Array(t.n).fill(1), { nside: 256 });
+    // HEALPix: the equator ring at nside 256 has 4*nside = 1024 pixels, and a
+    // path along it crosses each of them (common-sense geometry of the grid)
+    expect(hit.pix.length).toBeGreaterThanOrEqual(1024);
+    const perPixel = Array.from(hit.hours).sort((a, b) => a - b);
+    // no pixel gets a lump much larger than the time needed to cross it twice over
+    const crossH = (2 * 0.23) / 5; // two pixel widths at 5 deg/h
+    expect(perPixel[perPixel.length - 1]).toBeLessThan(crossH * 1.5 * 1.01 * 3); // 3 passes over 72 h
+  });
+
+  it('rejects a bad nside with a clear message', () => {
+    expect(() => hitMap(track, usable, { nside: 100 })).toThrow(/power of two/);
+    expect(() => hitMap(track, usable.subarray(1), { nside: 64 })).toThrow(/usable mask/);
+  });
+});
+
+describe('exposure map', () => {
+  // A lunar-like drift: ~0.55 deg/h along dec -35, with a slow 1.5 deg wobble
+  // (the libration and pole precession stand-in), 30 days, day/night blocks.
+  const track = smallCircleTrack({ decDeg: -35, rateDegPerH: 0.55, stepMin: 20, spanH: 24 * 30, wobbleDeg: 1.5, wobblePeriodH: 24 * 9 });
+  const usable = blockMask(track.n, 40, 25);
+  const nside = 64;
+
+  it('conserves time x solid angle: sum(exposure) x pixel area = usable hours x 1.1331 FWHM^2 within 1%', () => {
+    for (const fwhmDeg of [2.5, 6, 15]) {
+      const beam = gaussianProfile(fwhmDeg);
+      const hit = hitMap(track, usable, { nside: hitNsideFor(beam.fwhmRad) });
+      const map = exposureMap(hit, beam, nside);
+      const lhs = sum(map) * nside2pixareaSr(nside);
+      // Gaussian beam solid angle pi/(4 ln 2) FWHM^2 = 1.1331 FWHM^2 (antenna theory texts)
+      const rhs = usableHours(track, usable) * 1.1331 * (fwhmDeg * DEG) ** 2;
+      expect(Math.abs(lhs / rhs - 1)).toBeLessThan(0.01);
+    }
+  });
+
+  it('agrees with the naive exact exposure (beam around every fine sub-step) within 0.5% relative L1', () => {
+    for (const fwhmDeg of [2, 5, 12]) {
+      const beam = gaussianProfile(fwhmDeg);
+      const hit = hitMap(track, usable, { nside: hitNsideFor(beam.fwhmRad) });
+      const fast = exposureMap(hit, beam, nside);
+      const naive = naiveExposure(track, usable, beam, nside, { subSteps: 8 });
+      expect(relativeL1(fast, naive)).toBeLessThan(0.005);
+      // and the peak agrees too
+      const maxF = Math.max(...fast), maxN = Math.max(...naive);
+      expect(Math.abs(maxF / maxN - 1)).toBeLessThan(0.005);
+    }
+  });
+
+  it('shows no stripes when the step is longer than the beam: the ridge along the path is even', () => {
+    // 4 deg per sample with a 2 deg beam: splatting only at samples would leave
+    // dips of ~exp(-4 ln2) between them; the continuous path does not.
+    const t = smallCircleTrack({ decDeg: 0, rateDegPerH: 4, stepMin: 60, spanH: 90 }); // exactly one turn
+    const beam = gaussianProfile(2);
+    const hit = hitMap(t, new Uint8Array(t.n).fill(1), { nside: hitNsideFor(beam.fwhmRad) });
+    const map = exposureMap(hit, beam, 128);
+    const c = pixelCentersRing(128);
+    const ridge: number[] = [];
+    for (let q = 0; q < nside2npix(128); q++) if (Math.abs(c[3 * q + 2]) < Math.sin(0.15 * DEG)) ridge.push(map[q]);
+    const mean = sum(ridge) / ridge.length;
+    for (const v of ridge) expect(Math.abs(v / mean - 1)).toBeLessThan(0.02);
+    const naiveCoarse = naiveExposure(t, new Uint8Array(t.n).fill(1), beam, 128, { subSteps: 1 });
+    const ridgeNaive: number[] = [];
+    for (let q = 0; q < nside2npix(128); q++) if (Math.abs(c[3 * q + 2]) < Math.sin(0.15 * DEG)) ridgeNaive.push(naiveCoarse[q]);
+    // the sample-only splat does stripe (this is what the path walk avoids)
+    expect(Math.min(...ridgeNaive) / Math.max(...ridgeNaive)).toBeLessThan(0.5);
+  });
+
+  it('rejects a bad output nside or beam with a clear message', () => {
+    const hit = hitMap(track, usable, { nside: 64 });
+    expect(() => exposureMap(hit, gaussianProfile(3), 48)).toThrow(/power of two/);
+    expect(() => exposureMap(hit, { fwhmRad: 0, cutoffRad: 0.1, powerAt: () => 1 }, 64)).toThrow(/fwhmRad/);
+  });
+});
+
+describe('covered sky', () => {
+  it('a full turn along the equator covers exactly the pixel centres within R of it', () => {
+    const t = smallCircleTrack({ decDeg: 0, rateDegPerH: 3, stepMin: 30, spanH: 120 });
+    const nside = 128;
+    const R = 2 * DEG;
+    const hit = hitMap(t, new Uint8Array(t.n).fill(1), { nside: hitNsideFor(2 * R) });
+    const mask = coveredMask(hit, R, nside);
+    const c = pixelCentersRing(nside);
+    let wrong = 0, inside = 0;
+    for (let q = 0; q < nside2npix(nside); q++) {
+      const want = Math.abs(c[3 * q + 2]) <= Math.sin(R) ? 1 : 0;
+      inside += want;
+      if (mask[q] !== want) wrong++;
+    }
+    expect(inside).toBeGreaterThan(0);
+    // only pixels lying on the band's edge (within a hair of R) may differ
+    expect(wrong / inside).toBeLessThan(0.002);
+    // band area fraction = sin R (spherical zone), to pixelisation accuracy
+    expect(Math.abs(sum(mask) / nside2npix(nside) / Math.sin(R) - 1)).toBeLessThan(0.03);
+  });
+
+  it('an unusable stretch leaves its part of the sky uncovered', () => {
+    const t = smallCircleTrack({ decDeg: 20, rateDegPerH: 3, stepMin: 30, spanH: 120 }); // 360 deg
+    const usable = new Uint8Array(t.n);
+    for (let i = 0; i < t.n; i++) usable[i] = t.ra_deg[i] < 180 ? 1 : 0;
+    const hit = hitMap(t, usable, { nside: 512 });
+    const mask = coveredMask(hit, 1 * DEG, 64);
+    const c = pixelCentersRing(64);
+    for (let q = 0; q < mask.length; q++) {
+      if (!mask[q]) continue;
+      const ra = ((Math.atan2(c[3 * q + 1], c[3 * q]) / DEG) + 360) % 360;
+      // within 1 deg of the usable half (ra 0..180 plus the last interval's path)
+      expect(ra < 183.5 || ra > 358).toBe(true);
+    }
+  });
+});
