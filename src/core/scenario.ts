@@ -224,16 +224,16 @@ export function isPowerOfTwo(n: number): boolean {
 // ---------------------------------------------------------------- horizon mask (shared with the CSV reader)
 
 /**
- * Checks one horizon point. `where` names it in messages (e.g.
- * `constraints.horizon_mask[3]` or `line 7`); `prevAz` is the previous
- * point's azimuth (points must be in increasing azimuth).
+ * Checks one horizon point; `azField`/`elField` name its two values in
+ * messages (e.g. `constraints.horizon_mask[3][0] (azimuth)` or `line 7: azimuth`);
+ * `prevAz` is the previous point's azimuth (points must be in increasing azimuth).
  */
-export function horizonPointIssues(where: string, az: unknown, el: unknown, prevAz: number | null): FieldIssue[] {
+export function horizonPointIssues(azField: string, elField: string, az: unknown, el: unknown, prevAz: number | null): FieldIssue[] {
   const iss = new Issues();
-  const a = num(iss, `${where} azimuth`, az, SCENARIO_LIMITS.horizon_az_deg);
-  num(iss, `${where} elevation`, el, SCENARIO_LIMITS.horizon_el_deg);
+  const a = num(iss, azField, az, SCENARIO_LIMITS.horizon_az_deg);
+  num(iss, elField, el, SCENARIO_LIMITS.horizon_el_deg);
   if (a !== undefined && prevAz !== null && !(a > prevAz)) {
-    iss.add(`${where} azimuth`, `${where} azimuth must be greater than the previous point's (${prevAz}), got ${describeValue(a)}: list points in increasing azimuth`);
+    iss.add(azField, `${azField} must be greater than the previous point's azimuth (${prevAz}), got ${describeValue(a)}: list points in increasing azimuth`);
   }
   return iss.list;
 }
@@ -261,11 +261,11 @@ function horizonMask(iss: Issues, field: string, v: unknown): [number, number][]
       prevAz = null;
       continue;
     }
-    const found = horizonPointIssues(where, p[0], p[1], prevAz);
-    for (const f of found) iss.add(f.field, f.message);
+    const found = horizonPointIssues(`${where}[0] (azimuth)`, `${where}[1] (elevation)`, p[0], p[1], prevAz);
+    for (const f of found) iss.add(f.field.replace(/ \(\w+\)$/, ''), f.message);
     if (found.length) {
       bad = true;
-      prevAz = typeof p[0] === 'number' && Number.isFinite(p[0]) ? p[0] : null;
+      prevAz = typeof p[0] === 'number' && p[0] >= 0 && p[0] <= 360 ? p[0] : null;
       if (iss.count >= MAX_ISSUES) break;
       continue;
     }

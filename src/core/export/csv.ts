@@ -1,0 +1,139 @@
+import type { PlanResult } from '../types';
+import { pix2vecRingInto } from '../healpix';
+import { vecToGalDeg, vecToRaDecDeg, type Vec3 } from '../frames';
+
+// coverage.csv and track.csv, exactly as ARCHITECTURE.md §3. Both come as a
+// stream of chunks too, because a full-resolution map (nside 1024: 12.6
+// million rows) or a long track is larger than one JavaScript string may be.
+//
+// Cell rule (spreadsheet formula injection, issue 6 item 5): a TEXT cell that
+// starts with = + - @ or a tab or carriage return gets a leading apostrophe,
+// so a spreadsheet shows it as text instead of running it; a text cell holding
+// a comma, quote, line break or edge space is quoted, quotes doubled (RFC 4180).
+// NUMBERS are written as numbers and never changed: -12.5 stays -12.5.
+
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+export function csvCell(value: string | number | boolean | null | undefined): string {
+  if (value === null || value === undefined) return '';
+  if (typeof value === 'number') return Number.isFinite(value) ? (value === 0 ? '0' : String(value)) : '';
+  if (typeof value === 'boolean') return value ? '1' : '0';
+  let s = String(value);
+  if (FORMULA_START.test(s)) s = `'${s}`;
+  if (/[",\r\n]/.test(s) || s !== s.trim()) s = `"${s.replace(/"/g, '""')}"`;
+  return s;
+}
+
+/** The exposure column name of a frequency: `<f>` as JavaScript prints the number (7, 7.5). */
+export function coverageColumnName(mhz: number): string {
+  return `exposure_h_${String(mhz)}mhz`;
+}
+
+/** Degrees with 6 decimals (3.6 milliarcseconds), trailing zeros dropped. */
+export function fmtDeg(x: number): string {
+  if (!Number.isFinite(x)) return '';
+  let s = x.toFixed(6);
+  if (s.includes('.')) s = s.replace(/0+$/, '').replace(/\.$/, '');
+  return s === '-0' ? '0' : s;
+}
+
+/** Right ascension or galactic longitude in [0, 360): rounding up to 360 reads as 0. */
+function fmtLonDeg(x: number): string {
+  const s = fmtDeg(x);
+  return s === '360' ? '0' : s;
+}
+
+/**
+ * A float32 value in the fewest of 7 or 9 significant digits that read back
+ * as exactly the same float32, so the CSV and the FITS file hold equal values.
+ */
+export function fmtF32(x: number): string {
+  if (x === 0) return '0';
+  if (!Number.isFinite(x)) return '';
+  let s = x.toPrecision(7);
+  if (Math.fround(Number(s)) !== x) s = x.toPrecision(8);
+  if (Math.fround(Number(s)) !== x) s = x.toPrecision(9);
+  return trimZeros(s);
+}
+
+function trimZeros(s: string): string {
+  const e = s.indexOf('e');
+  const mant = e >= 0 ? s.slice(0, e) : s;
+  const exp = e >= 0 ? s.slice(e) : '';
+  const m = mant.includes('.') ? mant.replace(/0+$/, '').replace(/\.$/, '') : mant;
+  return m + exp;
+}
+
+const CHUNK_ROWS = 16384;
+
+export function coverageCsvHeader(result: PlanResult): string {
+  const cols = ['pixel', 'ra_deg', 'dec_deg', 'l_deg', 'b_deg', ...result.scenario.telescope.frequencies_mhz.map(coverageColumnName)];
+  return cols.map(csvCell).join(',') + '\n';
+}
+
+/** coverage.csv in chunks: header, then one row per HEALPix RING pixel in order. */
+export function* coverageCsvChunks(result: PlanResult): Generator<string, void, void> {
+  const nside = result.scenario.map.nside;
+  const npix = 12 * nside * nside;
+  const maps = result.maps;
+  for (const m of maps) {
+    if (m.length !== npix) throw new Error(`coverage map has ${m.length} pixels, expected ${npix} for nside ${nside}`);
+  }
+  yield coverageCsvHeader(result);
+  const v: Vec3 = [0, 0, 0];
+  let rows: string[] = [];
+  for (let p = 0; p < npix; p++) {
+    pix2vecRingInto(nside, p, v);
+    const [ra, dec] = vecToRaDecDeg(v);
+    const [l, b] = vecToGalDeg(v);
+    let row = `${p},${fmtLonDeg(ra)},${fmtDeg(dec)},${fmtLonDeg(l)},${fmtDeg(b)}`;
+    for (let f = 0; f < maps.length; f++) row += ',' + fmtF32(maps[f][p]);
+    rows.push(row);
+    if (rows.length === CHUNK_ROWS) {
+      yield rows.join('\n') + '\n';
+      rows = [];
+    }
+  }
+  if (rows.length) yield rows.join('\n') + '\n';
+}
+
+export function coverageCsv(result: PlanResult): string {
+  return [...coverageCsvChunks(result)].join('');
+}
+
+/** UTC of a sample: seconds always; milliseconds only when some sample of the track needs them. */
+function utcFormatter(t0Ms: number, stepMs: number): (ms: number) => string {
+  const whole = t0Ms % 1000 === 0 && stepMs % 1000 === 0;
+  return whole
+    ? (ms) => new Date(ms).toISOString().replace('.000Z', 'Z')
+    : (ms) => new Date(Math.round(ms)).toISOString();
+}
+
+const TRACK_COLUMNS = ['utc', 'ra_deg', 'dec_deg', 'l_deg', 'b_deg', 'sun_elev_deg', 'earth_elev_deg', 'usable'];
+
+/** track.csv in chunks: one row per sample; earth_elev_deg empty for Earth sites; usable 0/1. */
+export function* trackCsvChunks(result: PlanResult): Generator<string, void, void> {
+  const t = result.track;
+  const u = result.usable;
+  if (u.length !== t.n) throw new Error(`usable flags have ${u.length} entries, expected ${t.n}`);
+  yield TRACK_COLUMNS.map(csvCell).join(',') + '\n';
+  const stepMs = t.step_min * 60_000;
+  const utc = utcFormatter(t.t0_ms, stepMs);
+  const earth = t.earth_elev_deg;
+  let rows: string[] = [];
+  for (let i = 0; i < t.n; i++) {
+    rows.push(
+      `${csvCell(utc(t.t0_ms + i * stepMs))},${fmtLonDeg(t.ra_deg[i])},${fmtDeg(t.dec_deg[i])},${fmtLonDeg(t.l_deg[i])},${fmtDeg(t.b_deg[i])},` +
+        `${fmtDeg(t.sun_elev_deg[i])},${earth ? fmtDeg(earth[i]) : ''},${u[i] ? 1 : 0}`,
+    );
+    if (rows.length === CHUNK_ROWS) {
+      yield rows.join('\n') + '\n';
+      rows = [];
+    }
+  }
+  if (rows.length) yield rows.join('\n') + '\n';
+}
+
+export function trackCsv(result: PlanResult): string {
+  return [...trackCsvChunks(result)].join('');
+}

@@ -1,0 +1,35 @@
+import type { Summary } from '../types';
+import { canonical } from '../scenario';
+
+// summary.json, "format": "swathe.summary/1" (ARCHITECTURE.md §3): 2-space
+// JSON with the fields in the format's order whatever order the engine built
+// them in, so two runs of the same scenario give byte-identical files. Fields
+// added later by the engine keep their place after the known ones (the format
+// grows by adding fields). Non-finite numbers (none are expected) become null.
+
+const TOP = ['format', 'scenario', 'step_min', 'samples', 'hours', 'zenith', 'galactic', 'frequencies'];
+const HOURS = ['total', 'sun_down', 'earth_down', 'usable'];
+const ZENITH = ['dec_min_deg', 'dec_max_deg', 'ecl_lat_min_deg', 'ecl_lat_max_deg'];
+const GALACTIC = ['band_deg', 'center_radius_deg', 'usable_hours_zenith_in_band', 'usable_hours_zenith_near_center'];
+const FREQ = [
+  'mhz', 'wavelength_m', 'redshift_21cm', 'fwhm_deg', 'sky_fraction_covered', 'exposure_max_h',
+  'exposure_median_h_covered', 'usable_hours_beam_in_band', 'usable_hours_beam_near_center',
+];
+
+function ordered(o: object, known: string[]): Record<string, unknown> {
+  const src = o as Record<string, unknown>;
+  const out: Record<string, unknown> = {};
+  for (const k of known) if (Object.prototype.hasOwnProperty.call(src, k)) out[k] = src[k];
+  for (const k of Object.keys(src)) if (!known.includes(k)) out[k] = src[k];
+  return out;
+}
+
+export function summaryJson(summary: Summary): string {
+  const top = ordered(summary, TOP);
+  top.scenario = canonical(summary.scenario);
+  top.hours = ordered(summary.hours, HOURS);
+  top.zenith = ordered(summary.zenith, ZENITH);
+  top.galactic = ordered(summary.galactic, GALACTIC);
+  top.frequencies = summary.frequencies.map((f) => ordered(f, FREQ));
+  return JSON.stringify(top, null, 2) + '\n';
+}

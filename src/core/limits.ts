@@ -1,0 +1,96 @@
+import type { FieldIssue, Scenario } from './types';
+import { parseUtcMs, stepMin } from './time';
+
+// Limits stated before a run (issue 6 item 3): the engine, the CLI and the app
+// estimate the work from the scenario alone and refuse beyond these, saying
+// which setting to change.
+
+export const RUN_LIMITS = {
+  /** Most samples (ephemeris points) a run may have. */
+  max_samples: 20_000_000,
+  /** Largest map.nside (also the format's bound; kept here for callers that build a Scenario by hand). */
+  max_nside: 1024,
+  /** Largest estimated working memory. */
+  max_memory_mb: 4096,
+} as const;
+
+// Memory model (bytes). The track holds 13 Float64 arrays per sample
+// (weight, zenith x/y/z, ra, dec, l, b, ecliptic latitude, Sun and Earth
+// elevation/azimuth) plus the usable flags; each frequency's exposure map is
+// Float32 per pixel; the coverage stage's working grids are taken as four
+// Float64 maps at the output nside (a stated allowance, checked against the
+// engine's measured peak in tests/unit/limits-estimate.test.ts).
+const TRACK_BYTES_PER_SAMPLE = 13 * 8 + 1;
+const MAP_BYTES_PER_PIXEL_PER_FREQ = 4;
+const WORK_BYTES_PER_PIXEL = 4 * 8;
+const BASE_MB = 30;
+
+// Time model (seconds): per sample for the ephemeris and binning, per pixel
+// and frequency for the beam convolution and statistics. Measured with the
+// engine on this project's 2-core development machine (see the test above);
+// a planning figure, not a promise.
+export const TIME_PER_SAMPLE_S = 1.5e-6;
+export const TIME_PER_PIXEL_FREQ_S = 2.5e-7;
+const TIME_BASE_S = 0.2;
+
+export interface RunEstimate {
+  samples: number;
+  step_min: number;
+  memory_mb: number;
+  seconds_estimate: number;
+  problems: FieldIssue[];
+}
+
+function grouped(n: number): string {
+  return Math.round(n).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+}
+
+function sig(x: number, digits = 3): string {
+  return String(Number(x.toPrecision(digits)));
+}
+
+/** Estimates a run of a validated scenario, with any problems against RUN_LIMITS. */
+export function estimateRun(s: Scenario): RunEstimate {
+  const t0 = parseUtcMs(s.span.start);
+  const t1 = parseUtcMs(s.span.end);
+  const step = stepMin(s);
+  const spanMin = t0 !== null && t1 !== null ? (t1 - t0) / 60_000 : NaN;
+  const samples = Number.isFinite(spanMin) && step > 0 ? Math.ceil(spanMin / step) : NaN;
+  const nside = s.map.nside;
+  const npix = 12 * nside * nside;
+  const nf = s.telescope.frequencies_mhz.length;
+
+  const bytes = samples * TRACK_BYTES_PER_SAMPLE + npix * (nf * MAP_BYTES_PER_PIXEL_PER_FREQ + WORK_BYTES_PER_PIXEL);
+  const memory_mb = BASE_MB + bytes / 1e6;
+  const seconds_estimate = TIME_BASE_S + samples * TIME_PER_SAMPLE_S + npix * nf * TIME_PER_PIXEL_FREQ_S;
+
+  const problems: FieldIssue[] = [];
+  if (!Number.isFinite(samples)) {
+    problems.push({ field: 'span', message: 'span: the number of samples cannot be worked out (check span.start, span.end and span.step_min)' });
+  } else if (samples > RUN_LIMITS.max_samples) {
+    const needStep = spanMin / RUN_LIMITS.max_samples;
+    const how = s.span.step_min === null ? `an automatic step of ${sig(step)} minutes, set by the narrowest beam` : `a step of ${sig(step)} minutes`;
+    problems.push({
+      field: 'span.step_min',
+      message:
+        `the run needs ${grouped(samples)} samples: ${sig(spanMin / 1440)} days at ${how}; the limit is ${grouped(RUN_LIMITS.max_samples)}: ` +
+        `set span.step_min to at least ${sig(Math.ceil(needStep * 1000) / 1000, 4)} minutes, or shorten the span (span.end)`,
+    });
+  }
+  if (nside > RUN_LIMITS.max_nside) {
+    problems.push({ field: 'map.nside', message: `map.nside must be at most ${RUN_LIMITS.max_nside} here, got ${nside}: choose a smaller map.nside` });
+  }
+  if (Number.isFinite(memory_mb) && memory_mb > RUN_LIMITS.max_memory_mb && problems.length === 0) {
+    problems.push({
+      field: 'map.nside',
+      message: `the run would need about ${grouped(memory_mb)} MB of memory; the limit is ${grouped(RUN_LIMITS.max_memory_mb)} MB: lower map.nside, use fewer telescope.frequencies_mhz, or a longer span.step_min`,
+    });
+  }
+  return { samples, step_min: step, memory_mb, seconds_estimate, problems };
+}
+
+/** A one-line human description of an estimate, for the app and the CLI. */
+export function describeEstimate(e: RunEstimate): string {
+  const t = e.seconds_estimate < 90 ? `${sig(e.seconds_estimate, 2)} s` : `${sig(e.seconds_estimate / 60, 2)} min`;
+  return `${grouped(e.samples)} samples at ${sig(e.step_min)} min, about ${grouped(e.memory_mb)} MB, about ${t}`;
+}
