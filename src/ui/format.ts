@@ -1,0 +1,43 @@
+// Number formatting for tables and labels: fixed significant figures, units kept beside values.
+
+export function sig(v: number, digits = 3): string {
+  if (!Number.isFinite(v)) return '—';
+  if (v === 0) return '0';
+  const a = Math.abs(v);
+  if (a >= 1e6 || a < 1e-3) return v.toExponential(digits - 1);
+  return Number(v.toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 10 });
+}
+
+export function fixed(v: number, decimals: number): string {
+  return Number.isFinite(v) ? v.toFixed(decimals) : '—';
+}
+
+export function hours(v: number): string {
+  if (!Number.isFinite(v)) return '—';
+  if (v >= 100) return Math.round(v).toLocaleString('en-US');
+  return sig(v, 3);
+}
+
+export function percent(fraction: number): string {
+  return Number.isFinite(fraction) ? `${(fraction * 100).toFixed(1)} %` : '—';
+}
+
+/** Wavelength in m, switching to km above 1000 m. */
+export function wavelength(m: number): string {
+  return m >= 1000 ? `${sig(m / 1000, 3)} km` : `${sig(m, 3)} m`;
+}
+
+export function utcDay(ms: number): string {
+  return new Date(ms).toISOString().slice(0, 10);
+}
+
+export function utcMinute(ms: number): string {
+  return new Date(ms).toISOString().slice(0, 16).replace('T', ' ') + ' UTC';
+}
+
+export function duration(seconds: number): string {
+  if (!Number.isFinite(seconds)) return '—';
+  if (seconds < 1) return '< 1 s';
+  if (seconds < 90) return `${Math.round(seconds)} s`;
+  return `${Math.round(seconds / 60)} min`;
+}

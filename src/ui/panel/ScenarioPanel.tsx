@@ -1,0 +1,163 @@
+import type { BeamModel, BodyName } from '../../core/types';
+import { parseUtcMs } from '../../core/time';
+import type { Draft, IssueIndex } from '../state/draft';
+import { SHOWN_FIELDS } from '../state/draft';
+import { Field } from './Field';
+import { FrequencyList } from './FrequencyList';
+import { HorizonMask } from './HorizonMask';
+
+// The scenario form. It edits the draft (text as typed); validation comes from
+// the scenario parser's FieldIssues, shown beside the field they name.
+
+const DAY_MS = 86_400_000;
+// Synodic month 29.530589 d and lunar nodal period 6798.38 d (IAU / ARCHITECTURE §4).
+const QUICK_SPANS: { label: string; title: string; add: (t: number) => number }[] = [
+  { label: 'Lunar day', title: 'One synodic month, 29.530589 days', add: (t) => t + 29.530589 * DAY_MS },
+  { label: '1 year', title: 'One calendar year', add: (t) => addYears(t, 1) },
+  { label: '2 years', title: 'Two calendar years', add: (t) => addYears(t, 2) },
+  { label: 'Nodal cycle', title: 'One lunar nodal cycle, 6798.38 days (18.6 years)', add: (t) => t + 6798.38 * DAY_MS },
+];
+
+function addYears(t: number, n: number): number {
+  const d = new Date(t);
+  d.setUTCFullYear(d.getUTCFullYear() + n);
+  return d.getTime();
+}
+
+export function isoUtc(ms: number): string {
+  return new Date(Math.round(ms / 1000) * 1000).toISOString().replace('.000Z', 'Z');
+}
+
+const NSIDES = [8, 16, 32, 64, 128, 256, 512, 1024];
+
+export function ScenarioPanel({ draft, issues, onChange }: {
+  draft: Draft;
+  issues: IssueIndex;
+  onChange: (patch: Partial<Draft>) => void;
+}) {
+  const startMs = parseUtcMs(draft.start.trim());
+  const other = issues.unmatched(SHOWN_FIELDS);
+  const nsideOptions = NSIDES.includes(Number(draft.nside)) ? NSIDES : [...NSIDES, draft.nside];
+  return (
+    <form className="panel" aria-label="Scenario" onSubmit={(e) => e.preventDefault()} noValidate>
+      {other.length > 0 && (
+        <div className="panel-issues" role="alert">
+          {other.map((i, k) => <p key={k} className="field-msg">{i.message}</p>)}
+        </div>
+      )}
+      <Field label="Scenario name" messages={issues.get('name')}>
+        {(p) => <input {...p} value={draft.name} maxLength={200} onChange={(e) => onChange({ name: e.target.value })} />}
+      </Field>
+
+      <fieldset>
+        <legend>Site</legend>
+        <Field label="Body" messages={issues.get('site.body')}>
+          {(p) => (
+            <select {...p} value={draft.body} onChange={(e) => onChange({ body: e.target.value as BodyName })}>
+              <option value="moon">Moon</option>
+              <option value="earth">Earth</option>
+              <option value="mars">Mars</option>
+            </select>
+          )}
+        </Field>
+        <div className="pair">
+          <Field label="Latitude" messages={issues.get('site.lat_deg')} hint={draft.body === 'earth' ? '° N, geodetic' : '° N, planetocentric'}>
+            {(p) => <input {...p} inputMode="decimal" value={draft.lat} onChange={(e) => onChange({ lat: e.target.value })} />}
+          </Field>
+          <Field label="Longitude" messages={issues.get('site.lon_deg')} hint="° E">
+            {(p) => <input {...p} inputMode="decimal" value={draft.lon} onChange={(e) => onChange({ lon: e.target.value })} />}
+          </Field>
+        </div>
+      </fieldset>
+
+      <fieldset>
+        <legend>Span (UTC)</legend>
+        <Field label="Start (UTC)" messages={issues.get('span.start')} hint="YYYY-MM-DDThh:mm:ssZ">
+          {(p) => <input {...p} value={draft.start} spellCheck={false} onChange={(e) => onChange({ start: e.target.value })} />}
+        </Field>
+        <Field label="End (UTC)" messages={issues.get('span.end')}>
+          {(p) => <input {...p} value={draft.end} spellCheck={false} onChange={(e) => onChange({ end: e.target.value })} />}
+        </Field>
+        <div className="quick" role="group" aria-label="Quick spans from the start">
+          {QUICK_SPANS.map((q) => (
+            <button key={q.label} type="button" className="small" title={q.title} disabled={startMs === null}
+              onClick={() => startMs !== null && onChange({ end: isoUtc(q.add(startMs)) })}>
+              {q.label}
+            </button>
+          ))}
+        </div>
+        <Field label="Step (min)" messages={issues.get('span.step_min')} hint="empty = automatic (beam moves ≤ FWHM/8 per step, ≤ 60 min)">
+          {(p) => <input {...p} inputMode="decimal" value={draft.step} placeholder="automatic" onChange={(e) => onChange({ step: e.target.value })} />}
+        </Field>
+      </fieldset>
+
+      <fieldset>
+        <legend>Telescope</legend>
+        <Field label="Aperture (m)" messages={issues.get('telescope.aperture_m')}>
+          {(p) => <input {...p} inputMode="decimal" value={draft.aperture} onChange={(e) => onChange({ aperture: e.target.value })} />}
+        </Field>
+        <div className="pair">
+          <Field label="Beam model" messages={issues.get('telescope.beam.model')}>
+            {(p) => (
+              <select {...p} value={draft.beamModel} onChange={(e) => onChange({ beamModel: e.target.value as BeamModel })}>
+                <option value="gaussian">Gaussian</option>
+                <option value="airy">Airy (uniform disc)</option>
+              </select>
+            )}
+          </Field>
+          <Field label="FWHM factor k" messages={issues.get('telescope.beam.fwhm_factor')}
+            hint={draft.beamModel === 'airy' ? 'Airy: FWHM = 1.029 λ/D' : 'FWHM = k λ/D'}>
+            {(p) => <input {...p} inputMode="decimal" value={draft.fwhmFactor} disabled={draft.beamModel === 'airy'}
+              onChange={(e) => onChange({ fwhmFactor: e.target.value })} />}
+          </Field>
+        </div>
+        <div className="subhead" id="freq-head">Frequencies</div>
+        <FrequencyList draft={draft} issues={issues} onChange={(freqs) => onChange({ freqs })} />
+      </fieldset>
+
+      <fieldset>
+        <legend>Usable time</legend>
+        <div className="constraint">
+          <label className="check">
+            <input type="checkbox" checked={draft.sunOn} onChange={(e) => onChange({ sunOn: e.target.checked })} /> Sun below
+          </label>
+          <Field label={<span className="sr-only">Sun maximum elevation (degrees)</span>} messages={issues.get('constraints.sun_max_elev_deg')} className="inline">
+            {(p) => <input {...p} inputMode="decimal" value={draft.sunMax} disabled={!draft.sunOn} onChange={(e) => onChange({ sunMax: e.target.value })} />}
+          </Field>
+          <span className="unit">° elevation</span>
+        </div>
+        <div className="constraint">
+          <label className="check">
+            <input type="checkbox" checked={draft.body !== 'earth' && draft.earthOn} disabled={draft.body === 'earth'}
+              onChange={(e) => onChange({ earthOn: e.target.checked })} /> Earth below
+          </label>
+          <Field label={<span className="sr-only">Earth maximum elevation (degrees)</span>} messages={issues.get('constraints.earth_max_elev_deg')} className="inline">
+            {(p) => <input {...p} inputMode="decimal" value={draft.earthMax} disabled={draft.body === 'earth' || !draft.earthOn}
+              onChange={(e) => onChange({ earthMax: e.target.value })} />}
+          </Field>
+          <span className="unit">° elevation{draft.body === 'earth' ? ' (not for a site on the Earth)' : ''}</span>
+        </div>
+        <HorizonMask draft={draft} issues={issues} onChange={onChange} />
+      </fieldset>
+
+      <fieldset>
+        <legend>Map</legend>
+        <div className="pair three">
+          <Field label="HEALPix nside" messages={issues.get('map.nside')} hint="8–1024">
+            {(p) => (
+              <select {...p} value={draft.nside} onChange={(e) => onChange({ nside: e.target.value })}>
+                {nsideOptions.map((n) => <option key={String(n)} value={String(n)}>{String(n)}</option>)}
+              </select>
+            )}
+          </Field>
+          <Field label="Galactic band (°)" messages={issues.get('map.galactic_band_deg')} hint="|b| below">
+            {(p) => <input {...p} inputMode="decimal" value={draft.band} onChange={(e) => onChange({ band: e.target.value })} />}
+          </Field>
+          <Field label="Centre radius (°)" messages={issues.get('map.galactic_center_radius_deg')} hint="around l=0, b=0">
+            {(p) => <input {...p} inputMode="decimal" value={draft.centre} onChange={(e) => onChange({ centre: e.target.value })} />}
+          </Field>
+        </div>
+      </fieldset>
+    </form>
+  );
+}

@@ -1,0 +1,68 @@
+import type { PlanResult } from '../../core/types';
+import { fixed, hours, percent, sig, wavelength } from '../format';
+
+// One row per frequency, straight from PlanResult.summary (the same figures as summary.json).
+
+export function ResultsTable({ result, selected, onSelect }: { result: PlanResult; selected: number; onSelect: (i: number) => void }) {
+  const s = result.summary;
+  return (
+    <div className="table-wrap">
+      <table className="results" data-testid="results-table">
+        <caption>
+          Per-frequency coverage over {hours(s.hours.total)} h of span, {hours(s.hours.usable)} h usable
+        </caption>
+        <thead>
+          <tr>
+            <th scope="col">Frequency</th>
+            <th scope="col">Wavelength</th>
+            <th scope="col">21-cm redshift z</th>
+            <th scope="col">FWHM</th>
+            <th scope="col">Sky covered</th>
+            <th scope="col">Median exposure (covered)</th>
+            <th scope="col">Max exposure</th>
+            <th scope="col" title={`Usable hours with the beam within ${s.galactic.band_deg}° of the galactic plane`}>
+              Beam on galactic band (|b| &lt; {s.galactic.band_deg}°)
+            </th>
+            <th scope="col" title={`Usable hours with the beam within ${s.galactic.center_radius_deg}° of the galactic centre`}>
+              Beam near galactic centre (&lt; {s.galactic.center_radius_deg}°)
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {s.frequencies.map((f, i) => (
+            <tr
+              key={i}
+              className={i === selected ? 'selected' : undefined}
+              data-testid={`result-row-${i}`}
+              data-mhz={f.mhz}
+              data-sky-fraction={f.sky_fraction_covered}
+              data-exposure-max={f.exposure_max_h}
+            >
+              <th scope="row">
+                <button type="button" className="linklike" onClick={() => onSelect(i)} aria-pressed={i === selected}
+                  title="Show this frequency on the sky map">
+                  {sig(f.mhz, 6)} MHz
+                </button>
+              </th>
+              <td>{wavelength(f.wavelength_m)}</td>
+              <td>{fixed(f.redshift_21cm, 1)}</td>
+              <td>{sig(f.fwhm_deg, 3)}°</td>
+              <td>{percent(f.sky_fraction_covered)}</td>
+              <td>{hours(f.exposure_median_h_covered)} h</td>
+              <td>{hours(f.exposure_max_h)} h</td>
+              <td>{hours(f.usable_hours_beam_in_band)} h</td>
+              <td>{hours(f.usable_hours_beam_near_center)} h</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <p className="table-note">
+        Zenith declination {fixed(s.zenith.dec_min_deg, 2)}° to {fixed(s.zenith.dec_max_deg, 2)}°; ecliptic latitude{' '}
+        {fixed(s.zenith.ecl_lat_min_deg, 2)}° to {fixed(s.zenith.ecl_lat_max_deg, 2)}°. Sun down {hours(s.hours.sun_down)} h
+        {s.hours.earth_down !== null ? `, Earth down ${hours(s.hours.earth_down)} h` : ''}; zenith itself in the galactic band{' '}
+        {hours(s.galactic.usable_hours_zenith_in_band)} h and near the centre {hours(s.galactic.usable_hours_zenith_near_center)} h
+        (usable). Step {sig(s.step_min, 3)} min, {s.samples.toLocaleString('en-US')} samples.
+      </p>
+    </div>
+  );
+}
