@@ -1,0 +1,137 @@
+import { mkdirSync, statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import { estimateRun } from '../core/limits';
+import { coverageCsvChunks, trackCsvChunks } from '../core/export/csv';
+import { coverageFits } from '../core/export/fits';
+import { summaryJson } from '../core/export/summary';
+import { AtomicFileSet } from './atomicWrite';
+import { loadRunPlan, type RunPlanFn } from './engine';
+import { EXIT_OK, InputError, UsageError, oneLine } from './errors';
+import type { CliIo } from './io';
+import { progressReporter } from './progress';
+import { readScenarioFile } from './scenarioFile';
+
+export const PLAN_HELP = `Usage: swathe plan SCENARIO.json --out DIR [--progress] [--quiet]
+
+Reads a swathe.scenario/1 JSON file, checks it and the run limits, computes
+the zenith track and the exposure maps, and writes into DIR (made if missing):
+  summary.json   swathe.summary/1: hours, zenith range, galactic dwell, per-frequency figures
+  track.csv      one row per sample: utc, ra/dec, l/b, Sun and Earth elevation, usable
+  coverage.csv   one row per HEALPix RING pixel: position and hours per frequency
+  coverage.fits  the exposure maps as a HEALPix binary-table FITS file
+Each file is written under a temporary name and renamed once all are complete.
+
+Options:
+  --out DIR     output directory (required)
+  --progress    show progress on stderr even when it is not a terminal
+  --quiet       no progress, nothing on stdout
+  -h, --help    show this help
+
+Exit status: 0 done; 2 bad input (the message names the field); 1 other failure.
+Figures are planning estimates from stated models, not a mission's verified analysis.
+`;
+
+export interface PlanDeps {
+  runPlan?: RunPlanFn;
+}
+
+export async function planCommand(argv: string[], io: CliIo, deps: PlanDeps = {}): Promise<number> {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      strict: true,
+      options: {
+        out: { type: 'string', short: 'o' },
+        progress: { type: 'boolean' },
+        quiet: { type: 'boolean', short: 'q' },
+        help: { type: 'boolean', short: 'h' },
+      },
+    });
+  } catch (e) {
+    throw new UsageError(`${argError(e)} (see swathe plan --help)`);
+  }
+  const { values, positionals } = parsed;
+  if (values.help) {
+    io.out(PLAN_HELP);
+    return EXIT_OK;
+  }
+  if (positionals.length === 0) throw new UsageError('missing SCENARIO.json (usage: swathe plan SCENARIO.json --out DIR)');
+  if (positionals.length > 1) throw new UsageError(`expected one scenario file, got ${positionals.length}: ${positionals.map((p) => oneLine(p, 80)).join(' ')}`);
+  if (values.out === undefined || values.out === '') throw new UsageError('missing --out DIR (usage: swathe plan SCENARIO.json --out DIR)');
+
+  const scenario = readScenarioFile(positionals[0], io.cwd);
+  const est = estimateRun(scenario);
+  if (est.problems.length) throw new InputError(`${oneLine(positionals[0], 200)}: ${est.problems.map((p) => p.message).join('; ')}`);
+
+  const outDir = resolve(io.cwd, values.out);
+  prepareOutDir(outDir, values.out);
+
+  const runPlan = deps.runPlan ?? (await loadRunPlan());
+  const progress = progressReporter(io, !values.quiet && (io.errIsTTY || Boolean(values.progress)));
+  const result = await runPlan(scenario, { onProgress: progress.report });
+  progress.done();
+
+  const files = new AtomicFileSet();
+  const onSignal = (sig: NodeJS.Signals) => {
+    files.abort();
+    io.err(`swathe plan: interrupted (${sig}); no output file was changed\n`);
+    process.exit(sig === 'SIGINT' ? 130 : 143);
+  };
+  process.once('SIGINT', onSignal);
+  process.once('SIGTERM', onSignal);
+  try {
+    files.write(join(outDir, 'summary.json'), [summaryJson(result.summary)]);
+    files.write(join(outDir, 'track.csv'), trackCsvChunks(result));
+    files.write(join(outDir, 'coverage.csv'), coverageCsvChunks(result));
+    files.write(join(outDir, 'coverage.fits'), [coverageFits(result)]);
+    const written = files.commit();
+    if (!values.quiet) {
+      const h = result.summary.hours;
+      io.out(`wrote ${written.map((w) => oneLine(w, 300)).join(', ')}\n`);
+      io.out(`${result.summary.samples} samples at ${Number(result.summary.step_min.toPrecision(4))} min; usable ${h.usable.toFixed(1)} h of ${h.total.toFixed(1)} h\n`);
+    }
+  } catch (e) {
+    files.abort();
+    throw e;
+  } finally {
+    process.removeListener('SIGINT', onSignal);
+    process.removeListener('SIGTERM', onSignal);
+  }
+  return EXIT_OK;
+}
+
+function argError(e: unknown): string {
+  const code = (e as { code?: string }).code;
+  const msg = e instanceof Error ? e.message : String(e);
+  if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') {
+    const m = /Unknown option '([^']*)'/.exec(msg);
+    return `unknown option ${m ? m[1] : ''}`.trim();
+  }
+  if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
+    const m = /Option '([^']*)'/.exec(msg);
+    return `option ${m ? m[1].replace(/^-\w, /, '').replace(/ <value>$/, '') : ''} needs a value`.replace('  ', ' ');
+  }
+  return oneLine(msg, 200);
+}
+
+function prepareOutDir(dir: string, shown: string): void {
+  try {
+    const st = statSync(dir);
+    if (!st.isDirectory()) throw new UsageError(`--out ${oneLine(shown, 200)}: exists and is not a directory`);
+    return;
+  } catch (e) {
+    if (e instanceof UsageError) throw e;
+    if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw e;
+  }
+  try {
+    mkdirSync(dir, { recursive: true });
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    if (code === 'ENOTDIR' || code === 'EEXIST') throw new UsageError(`--out ${oneLine(shown, 200)}: cannot be made (a part of the path is a file)`);
+    if (code === 'EACCES' || code === 'EPERM' || code === 'EROFS') throw new UsageError(`--out ${oneLine(shown, 200)}: not allowed to create this directory`);
+    throw e;
+  }
+}
