@@ -1,0 +1,96 @@
+import type { PlanResult } from '../../core/types';
+import { fwhmRad } from '../../core/beam';
+import { coveredMask, hitMap, hitNsideFor } from '../../core/coverage';
+
+// Comparison mode: the half-power outline of each frequency's track. The
+// covered region is the one the summary's sky_fraction_covered counts: RING
+// pixels at map.nside whose centre came within FWHM/2 of the zenith during
+// usable time, the track taken as a continuous path (core/coverage.ts,
+// coveredMask). The outline is the boundary of that region, found on the
+// screen raster through the same pixel lookup the exposure map uses.
+
+/** Okabe & Ito's colour-blind-safe qualitative palette (yellow last: weakest on the light grey sky). */
+export const OUTLINE_COLOURS = ['#0072B2', '#D55E00', '#009E73', '#CC79A7', '#E69F00', '#56B4E9', '#000000', '#F0E442'];
+
+export function outlineColour(i: number): string {
+  return OUTLINE_COLOURS[i % OUTLINE_COLOURS.length];
+}
+
+const maskCache = new WeakMap<PlanResult, Uint8Array[]>();
+
+/** Covered masks, one per frequency, computed once per result (from the track and usable flags it carries). */
+export function coveredMasks(result: PlanResult): Uint8Array[] {
+  const cached = maskCache.get(result);
+  if (cached) return cached;
+  const s = result.scenario;
+  const fw = s.telescope.frequencies_mhz.map((f) => fwhmRad(f, s.telescope.aperture_m, s.telescope.beam));
+  const hit = hitMap(result.track, result.usable, { nside: hitNsideFor(Math.min(...fw)) });
+  const masks = fw.map((w) => coveredMask(hit, w / 2, s.map.nside));
+  maskCache.set(result, masks);
+  return masks;
+}
+
+function hexRgba(hex: string): number {
+  const b = new Uint8ClampedArray([parseInt(hex.slice(1, 3), 16), parseInt(hex.slice(3, 5), 16), parseInt(hex.slice(5, 7), 16), 255]);
+  return new Uint32Array(b.buffer)[0];
+}
+
+/**
+ * Paints the boundary of each mask (as seen through `lookup`, a cols x rows
+ * raster) into `out` (RGBA bytes) in that mask's colour, `thickness` raster
+ * pixels wide, inside the covered region. A pixel is on the boundary when it is
+ * covered and a neighbour within `thickness` is not (or is off the sky).
+ */
+export function paintOutlines(
+  lookup: Int32Array,
+  cols: number,
+  rows: number,
+  masks: Uint8Array[],
+  colours: string[],
+  out: Uint8ClampedArray,
+  thickness = 2,
+): void {
+  const out32 = new Uint32Array(out.buffer, out.byteOffset, cols * rows);
+  const inside = new Uint8Array(cols * rows);
+  for (let m = 0; m < masks.length; m++) {
+    const mask = masks[m];
+    const c32 = hexRgba(colours[m]);
+    for (let k = 0; k < inside.length; k++) {
+      const p = lookup[k];
+      inside[k] = p >= 0 && mask[p] ? 1 : 0;
+    }
+    for (let j = 0; j < rows; j++) {
+      for (let i = 0; i < cols; i++) {
+        const k = j * cols + i;
+        if (!inside[k]) continue;
+        let edge = false;
+        for (let d = 1; d <= thickness && !edge; d++) {
+          if (i - d < 0 || i + d >= cols || j - d < 0 || j + d >= rows) { edge = true; break; }
+          if (!inside[k - d] || !inside[k + d] || !inside[k - d * cols] || !inside[k + d * cols]) edge = true;
+        }
+        // A covered pixel next to the rim of the sky is not a track boundary.
+        if (edge && !touchesSkyRim(lookup, cols, rows, i, j, thickness, inside)) out32[k] = c32;
+      }
+    }
+  }
+}
+
+function touchesSkyRim(lookup: Int32Array, cols: number, rows: number, i: number, j: number, t: number, inside: Uint8Array): boolean {
+  // The boundary is a real one if some neighbour is on the sky but not covered.
+  for (let d = 1; d <= t; d++) {
+    for (const [di, dj] of [[d, 0], [-d, 0], [0, d], [0, -d]] as const) {
+      const ii = i + di, jj = j + dj;
+      if (ii < 0 || jj < 0 || ii >= cols || jj >= rows) continue;
+      const k = jj * cols + ii;
+      if (lookup[k] >= 0 && !inside[k]) return false;
+    }
+  }
+  return true;
+}
+
+/** Fraction of the mask's pixels set (for the legend, a check against summary.sky_fraction_covered). */
+export function maskFraction(mask: Uint8Array): number {
+  let n = 0;
+  for (let i = 0; i < mask.length; i++) n += mask[i];
+  return mask.length ? n / mask.length : 0;
+}

@@ -1,0 +1,305 @@
+import type { PlanResult } from '../../core/types';
+import { fwhmRad } from '../../core/beam';
+import {
+  colourise,
+  divergingLut,
+  formatHours,
+  formatTick,
+  makeScale,
+  scaleTicks,
+  scaleUnit,
+  schemeLut,
+  DEFAULT_SCHEME,
+  ZERO_RGBA,
+  type SkySchemeName,
+  type ValueScale,
+} from './colour';
+import { coveredMasks, outlineColour, paintOutlines } from './coverageOutline';
+import { drawGraticuleLabels, drawOverlays, fontPx, haloText, type Ctx2D } from './overlays';
+import { frameAxisNames, makeMapGeometry, type LookupCache, type MapGeometry, type SkyFrame } from './skyProjection';
+
+// The parts of a sky-map figure shared by the on-screen map and the PNG export:
+// the colour raster, the overlays, the colour bar and the legend entries.
+
+export type SkyScale = 'linear' | 'log';
+
+export interface SkyView {
+  freqIndex: number;
+  frame: SkyFrame;
+  scale: SkyScale;
+  flipLongitude: boolean;
+  compare: boolean;
+  scheme?: SkySchemeName;
+  diff?: { other: PlanResult; labelA: string; labelB: string } | null;
+  beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
+}
+
+/** Map box inside a width x (width/2) area: room for the latitude labels left and right. */
+export function mapBox(width: number, height: number, u: number): { x0: number; y0: number; x1: number; y1: number } {
+  const pad = Math.max(8, 12 * u);
+  // 2:1 ellipse: as tall as the area allows, then centred horizontally.
+  const h = Math.min(height - 2 * pad, (width - 2 * 34 * u) / 2);
+  const w = 2 * h;
+  const x0 = (width - w) / 2;
+  const y0 = (height - h) / 2;
+  return { x0, y0, x1: x0 + w, y1: y0 + h };
+}
+
+export function fitGeometry(width: number, height: number, flip: boolean, u: number): MapGeometry {
+  const g = makeMapGeometry(mapBox(width, height, u), flip);
+  // The lookup and the hover read width/height as the drawing area, not the box.
+  g.width = width;
+  g.height = height;
+  return g;
+}
+
+const diffCache = new WeakMap<Float32Array, WeakMap<Float32Array, Float32Array>>();
+
+/** other - base per pixel; NaN where neither map has any exposure (drawn as "not observed"). */
+export function differenceMap(base: Float32Array, other: Float32Array): Float32Array {
+  let inner = diffCache.get(base);
+  if (!inner) diffCache.set(base, (inner = new WeakMap()));
+  const hit = inner.get(other);
+  if (hit) return hit;
+  if (base.length !== other.length) throw new RangeError('difference map: the two plans use different map resolutions (nside)');
+  const d = new Float32Array(base.length);
+  for (let i = 0; i < d.length; i++) {
+    const a = base[i], b = other[i];
+    d[i] = a > 0 || b > 0 ? b - a : NaN;
+  }
+  inner.set(other, d);
+  return d;
+}
+
+export interface RasterOut {
+  pixels: Uint8ClampedArray;
+  cols: number;
+  rows: number;
+  scale: ValueScale | null;
+  lut: Uint8ClampedArray | null;
+  /** Why nothing is coloured (e.g. a resolution mismatch in difference mode), else null. */
+  problem: string | null;
+}
+
+/** Colours the raster for one view; `lookup` must come from the same geometry, frame and nside. */
+export function renderRaster(result: PlanResult, view: SkyView, lookup: Int32Array, cols: number, rows: number): RasterOut {
+  const pixels = new Uint8ClampedArray(4 * cols * rows);
+  const map = result.maps[view.freqIndex];
+  if (!map) return { pixels, cols, rows, scale: null, lut: null, problem: 'no map for the selected frequency' };
+  if (view.compare) {
+    // Neutral sky, then every frequency's covered-region outline on top.
+    const grey = new Float32Array(0);
+    colourise(lookup, grey, { kind: 'linear', min: 0, max: 1 }, schemeLut(DEFAULT_SCHEME), pixels);
+    const masks = coveredMasks(result);
+    paintOutlines(lookup, cols, rows, masks, masks.map((_, i) => outlineColour(i)), pixels, Math.max(1, Math.round(cols / 700)));
+    return { pixels, cols, rows, scale: null, lut: null, problem: null };
+  }
+  if (view.diff) {
+    const other = view.diff.other.maps[view.freqIndex];
+    if (!other || other.length !== map.length) {
+      colourise(lookup, new Float32Array(0), { kind: 'linear', min: 0, max: 1 }, schemeLut(DEFAULT_SCHEME), pixels);
+      return {
+        pixels, cols, rows, scale: null, lut: null,
+        problem: !other ? 'the other plan has no map at this frequency index' : 'the two plans use different map resolutions (nside)',
+      };
+    }
+    const d = differenceMap(map, other);
+    const scale = makeScale('diverging', d);
+    const lut = divergingLut();
+    colourise(lookup, d, scale, lut, pixels);
+    return { pixels, cols, rows, scale, lut, problem: null };
+  }
+  const scale = makeScale(view.scale, map);
+  const lut = schemeLut(view.scheme ?? DEFAULT_SCHEME);
+  colourise(lookup, map, scale, lut, pixels);
+  return { pixels, cols, rows, scale, lut, problem: null };
+}
+
+export function beamRadiusDeg(result: PlanResult, freqIndex: number): number {
+  const s = result.scenario;
+  const f = s.telescope.frequencies_mhz[freqIndex];
+  return f === undefined ? 0 : (fwhmRad(f, s.telescope.aperture_m, s.telescope.beam) * 90) / Math.PI;
+}
+
+/**
+ * Draws the map (raster already coloured in `raster`, a drawable of the
+ * raster's size) with overlays and graticule labels into ctx at CSS size
+ * width x height; ctx may carry a device-pixel transform.
+ */
+export function drawMapLayer(
+  ctx: Ctx2D,
+  g: MapGeometry,
+  raster: CanvasImageSource,
+  result: PlanResult,
+  view: SkyView,
+  u: number,
+): void {
+  ctx.imageSmoothingEnabled = false;
+  ctx.drawImage(raster, 0, 0, g.width, g.height);
+  const m = result.scenario.map;
+  drawOverlays(ctx, g, {
+    frame: view.frame,
+    bandDeg: m.galactic_band_deg,
+    centreRadiusDeg: m.galactic_center_radius_deg,
+    u,
+    beam: view.beamAt ? { ...view.beamAt, radiusDeg: beamRadiusDeg(result, view.freqIndex) } : null,
+  });
+  drawGraticuleLabels(ctx, g, view.frame, u);
+}
+
+export function colourBarTitle(view: SkyView, scale: ValueScale | null): string {
+  if (view.diff && scale?.kind === 'diverging') return `Exposure difference, ${view.diff.labelB} − ${view.diff.labelA} (h)`;
+  return scale?.kind === 'log' ? 'Exposure (h, logarithmic)' : 'Exposure (h)';
+}
+
+/**
+ * Horizontal colour bar with ticks and a title, in box (x, y, w): the bar is
+ * 12u tall, tick labels under it, title above. A "0 h" swatch on the left shows
+ * the colour of unobserved sky. Returns the height used.
+ */
+export function drawColourBar(
+  ctx: Ctx2D,
+  x: number,
+  y: number,
+  w: number,
+  scale: ValueScale,
+  lut: Uint8ClampedArray,
+  title: string,
+  u: number,
+): number {
+  const font = Math.max(10, 12 * u);
+  const barH = 12 * u;
+  const swatch = scale.kind === 'diverging' ? 0 : 30 * u;
+  const bx = x + (swatch ? swatch + 26 * u : 0);
+  const bw = Math.max(40, w - (bx - x) - 16 * u);
+  const top = y + font * 1.4;
+  ctx.font = fontPx(font, 'bold');
+  ctx.fillStyle = '#1a1a1a';
+  ctx.textAlign = 'left';
+  ctx.textBaseline = 'top';
+  ctx.fillText(title, x, y);
+  const n = lut.length / 4;
+  for (let i = 0; i < n; i++) {
+    ctx.fillStyle = `rgb(${lut[4 * i]},${lut[4 * i + 1]},${lut[4 * i + 2]})`;
+    ctx.fillRect(bx + (i / n) * bw, top, bw / n + 0.6, barH);
+  }
+  ctx.strokeStyle = '#444';
+  ctx.lineWidth = Math.max(0.5, 0.8 * u);
+  ctx.strokeRect(bx, top, bw, barH);
+  ctx.font = fontPx(font);
+  ctx.fillStyle = '#1a1a1a';
+  ctx.textBaseline = 'top';
+  if (swatch) {
+    ctx.fillStyle = `rgb(${ZERO_RGBA[0]},${ZERO_RGBA[1]},${ZERO_RGBA[2]})`;
+    ctx.fillRect(x, top, swatch, barH);
+    ctx.strokeRect(x, top, swatch, barH);
+    ctx.fillStyle = '#1a1a1a';
+    ctx.textAlign = 'center';
+    ctx.fillText('0', x + swatch / 2, top + barH + 3 * u);
+  }
+  // Ticks, dropping any whose label would touch the previous one.
+  let lastRight = -Infinity;
+  for (const t of scaleTicks(scale, Math.max(2, Math.round(bw / (70 * u))))) {
+    const tx = bx + scaleUnit(scale, t) * bw;
+    const label = formatTick(t);
+    const half = ctx.measureText(label).width / 2;
+    if (tx - half < lastRight + 6 * u) continue;
+    ctx.beginPath();
+    ctx.moveTo(tx, top + barH);
+    ctx.lineTo(tx, top + barH + 3 * u);
+    ctx.strokeStyle = '#444';
+    ctx.stroke();
+    ctx.fillStyle = '#1a1a1a';
+    ctx.textAlign = 'center';
+    ctx.fillText(label, tx, top + barH + 4 * u);
+    lastRight = tx + half;
+  }
+  return font * 1.4 + barH + 4 * u + font * 1.3;
+}
+
+export interface LegendEntry {
+  kind: 'plane' | 'centre' | 'ecliptic' | 'frequency' | 'beam';
+  colour: string;
+  label: string;
+  dashed?: boolean;
+}
+
+/** Legend lines for the overlays and, per frequency, the hours the beam spends on the galactic band. */
+export function legendEntries(result: PlanResult, view: SkyView): LegendEntry[] {
+  const m = result.scenario.map;
+  const out: LegendEntry[] = [
+    { kind: 'plane', colour: '#ffffff', label: `Galactic plane (b = 0°), band |b| < ${m.galactic_band_deg}° shaded` },
+    { kind: 'centre', colour: '#ff4f4f', label: `Galactic centre (GC), dotted circle of ${m.galactic_center_radius_deg}°`, dashed: true },
+    { kind: 'ecliptic', colour: '#ffb000', label: 'Ecliptic (J2000)', dashed: true },
+  ];
+  if (view.beamAt) {
+    out.push({
+      kind: 'beam',
+      colour: view.beamAt.usable ? '#00e5ff' : '#ff66cc',
+      label: `Beam at the chosen time (FWHM circle)${view.beamAt.usable ? '' : ' — not usable then'}`,
+      dashed: !view.beamAt.usable,
+    });
+  }
+  const freqs = result.scenario.telescope.frequencies_mhz;
+  freqs.forEach((f, i) => {
+    const fs = result.summary.frequencies[i];
+    const inBand = fs ? formatHours(fs.usable_hours_beam_in_band) : '—';
+    const covered = fs ? `${(fs.sky_fraction_covered * 100).toFixed(1)} % of sky covered` : '';
+    out.push({
+      kind: 'frequency',
+      colour: view.compare ? outlineColour(i) : i === view.freqIndex ? '#1a1a1a' : '#777777',
+      label: `${f} MHz: beam on the galactic band ${inBand}${view.compare && covered ? `, ${covered}` : ''}`,
+    });
+  });
+  return out;
+}
+
+export function frameNote(view: SkyView): string {
+  const names = frameAxisNames(view.frame);
+  return `${names.title}, Mollweide; ${names.lon} increases to the ${view.flipLongitude ? 'right' : 'left'}`;
+}
+
+/** Draws one legend entry's symbol at (x, y) (centre line), size s. */
+export function drawLegendSymbol(ctx: Ctx2D, e: LegendEntry, x: number, y: number, s: number, u: number): void {
+  ctx.save();
+  if (e.kind === 'centre') {
+    ctx.beginPath();
+    ctx.arc(x + s / 2, y, 4 * u, 0, 2 * Math.PI);
+    ctx.fillStyle = e.colour;
+    ctx.fill();
+    ctx.strokeStyle = '#000';
+    ctx.lineWidth = 1.5 * u;
+    ctx.stroke();
+  } else if (e.kind === 'plane') {
+    ctx.fillStyle = '#5a6a8a';
+    ctx.fillRect(x, y - 5 * u, s, 10 * u);
+    ctx.fillStyle = 'rgba(255,255,255,0.3)';
+    ctx.fillRect(x, y - 3.5 * u, s, 7 * u);
+    ctx.strokeStyle = '#fff';
+    ctx.lineWidth = 1.5 * u;
+    ctx.beginPath();
+    ctx.moveTo(x, y);
+    ctx.lineTo(x + s, y);
+    ctx.stroke();
+  } else if (e.kind === 'frequency') {
+    ctx.fillStyle = e.colour;
+    ctx.fillRect(x, y - 2 * u, s, 4 * u);
+  } else {
+    ctx.strokeStyle = '#000';
+    ctx.lineWidth = 3.2 * u;
+    ctx.beginPath();
+    ctx.moveTo(x, y);
+    ctx.lineTo(x + s, y);
+    ctx.stroke();
+    ctx.strokeStyle = e.colour;
+    ctx.lineWidth = 1.6 * u;
+    ctx.setLineDash(e.dashed ? [5 * u, 3 * u] : []);
+    ctx.beginPath();
+    ctx.moveTo(x, y);
+    ctx.lineTo(x + s, y);
+    ctx.stroke();
+  }
+  ctx.restore();
+}
+
+export { haloText };
