@@ -649,8 +649,8 @@ function checkDisc(x: number, y: number, z: number, radiusRad: number, fact: num
  * Ring-by-ring disc search into the module range buffer. Exact mode keeps the
  * pixels whose centres lie within radiusRad of the direction; inclusive mode
  * keeps every pixel that may overlap the disc (an overestimate controlled by
- * fact, the same definition as the reference implementation's query_disc
- * with inclusive=True and its `fact` parameter).
+ * fact, the definition of the reference implementation's query_disc with
+ * inclusive=True and its `fact` parameter, less one edge-case omission there).
  */
 function discRanges(nside: number, x: number, y: number, z: number, radius: number, inclusive: boolean, fact: number): void {
   nRanges = 0;
@@ -699,15 +699,25 @@ function discRanges(nside: number, x: number, y: number, z: number, radius: numb
     const xx = (cosrbig - zr * z0) * xa;
     const ysq = 1 - zr * zr - xx * xx;
     let dphi: number;
-    if (ysq <= 0) dphi = fct === 1 ? 0 : PI - 1e-15; // ring wholly inside or outside
-    else dphi = Math.atan2(Math.sqrt(ysq), xx);
+    let wholeRing = false;
+    if (ysq <= 0) {
+      // ring wholly inside the big radius, or wholly outside it
+      if (fct === 1) continue;
+      wholeRing = true;
+      dphi = PI;
+    } else dphi = Math.atan2(Math.sqrt(ysq), xx);
     if (!(dphi > 0)) continue;
     ringInfo(nside, iz);
     const nr = riCount, ipix1 = riStart;
     const shift = riShifted ? 0.5 : 0;
     const ipix2 = ipix1 + nr - 1;
     let ipLo = Math.floor(nr * INV_TWOPI * (phi0 - dphi) - shift) + 1;
-    let ipHi = Math.floor(nr * INV_TWOPI * (phi0 + dphi) - shift);
+    // A whole ring is taken as exactly nr pixels centred on phi0, so that the
+    // edge trimming below starts from the far side of the disc. (The reference
+    // implementation uses dphi = pi - 1e-15 here, which loses the pixel whose
+    // centre is exactly opposite phi0, e.g. for a disc centred at phi = 0; the
+    // results are otherwise identical.)
+    let ipHi = wholeRing ? ipLo + nr - 1 : Math.floor(nr * INV_TWOPI * (phi0 + dphi) - shift);
     if (fct > 1) {
       while (ipLo <= ipHi && pixelClearOfDisc(nside, ipLo, nr, ipix1, fct, z0, phi0, cosrsmall, cpix)) ++ipLo;
       while (ipHi > ipLo && pixelClearOfDisc(nside, ipHi, nr, ipix1, fct, z0, phi0, cosrsmall, cpix)) --ipHi;

@@ -111,6 +111,16 @@ describe('query_disc', () => {
       expect(count).toBe(got.length);
     }
   });
+  it('inclusive keeps the ring pixel exactly opposite a disc centred at phi = 0', () => {
+    // Found by the property test: the point q lies inside the disc (1.2791583837 < r) and
+    // inside RING pixel 4480 (nside 32), whose centre is at phi = pi.
+    const c = [0.004290859958537119, 0, 0.9999907942180349];
+    const r = 1.2791583849331007;
+    const q = [-0.9565316857413323, 1.7594026934029405e-16, 0.2916284179788471];
+    expect(angle(c, q)).toBeLessThan(r);
+    expect(vec2pixRing(32, q[0], q[1], q[2])).toBe(4480);
+    expect(queryDiscRing(32, c[0], c[1], c[2], r, true)).toContain(4480);
+  });
   it('a radius of pi or more returns the whole sky', () => {
     expect(queryDiscRing(4, 0, 1, 0, Math.PI).length).toBe(192);
   });
