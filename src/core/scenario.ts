@@ -266,7 +266,6 @@ function horizonMask(iss: Issues, field: string, v: unknown): [number, number][]
     if (found.length) {
       bad = true;
       prevAz = typeof p[0] === 'number' && p[0] >= 0 && p[0] <= 360 ? p[0] : null;
-      if (iss.count >= MAX_ISSUES) break;
       continue;
     }
     out.push([p[0] === 0 ? 0 : p[0], p[1] === 0 ? 0 : p[1]]);
@@ -439,15 +438,16 @@ function frequencies(iss: Issues, field: string, v: unknown): number[] | undefin
     return undefined;
   }
   const out: number[] = [];
+  const seen = new Map<number, number>();
   let bad = false;
   for (let i = 0; i < v.length; i++) {
     const f = num(iss, `${field}[${i}]`, v[i], fr);
     if (f === undefined) { bad = true; continue; }
-    const j = out.indexOf(f);
-    if (j >= 0) {
+    const j = seen.get(f);
+    if (j !== undefined) {
       iss.add(`${field}[${i}]`, `${field}[${i}] repeats ${f} MHz (already at [${j}]); give each frequency once`);
       bad = true;
-    }
+    } else seen.set(f, i);
     out.push(f);
   }
   return bad ? undefined : out;
