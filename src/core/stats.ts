@@ -3,6 +3,7 @@
 
 import type { FrequencySummary, Scenario, Track } from './types';
 import { redshift21cm, wavelengthM } from './beam';
+import { galDegToVec } from './frames';
 
 const DEG = Math.PI / 180;
 
@@ -17,12 +18,11 @@ export function usableHoursInBand(track: Track, usable: Uint8Array, limitDeg: nu
 /** Usable hours while the zenith is within radiusDeg of the galactic centre (l = 0, b = 0). */
 export function usableHoursNearCenter(track: Track, usable: Uint8Array, radiusDeg: number): number {
   const cosR = Math.cos(Math.min(180, radiusDeg) * DEG);
+  const gc = galDegToVec(0, 0);
   let h = 0;
-  const { l_deg, b_deg, weight_h } = track;
+  const { zx, zy, zz, weight_h } = track;
   for (let i = 0; i < track.n; i++) {
-    if (!usable[i]) continue;
-    // cos(angle to l=0,b=0) = cos b cos l (spherical law of cosines)
-    if (Math.cos(b_deg[i] * DEG) * Math.cos(l_deg[i] * DEG) > cosR) h += weight_h[i];
+    if (usable[i] && zx[i] * gc[0] + zy[i] * gc[1] + zz[i] * gc[2] > cosR) h += weight_h[i];
   }
   return h;
 }

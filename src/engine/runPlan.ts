@@ -1,0 +1,192 @@
+// Runs the pipeline stages (ARCHITECTURE.md §1) for one scenario, in-process:
+// the same code serves Node (CLI, tests, benchmarks) and the Web Worker.
+//
+// The stages are generators; this runner resumes them, and every SLICE_MS of
+// work it reports progress and awaits a macrotask, so the event loop (and an
+// AbortSignal, or a worker's next message) gets a turn. Cancelling rejects
+// with an Error named 'CancelledError'; nothing partial is returned or kept.
+//
+// `reuse` (a previous result) skips the stages whose inputs are unchanged: the
+// ephemeris when only constraints, frequencies, beam or map settings change;
+// the usable mask and hit map when only frequencies, beam or map change.
+
+import type { FrequencySummary, PlanResult, Scenario, Stage, Summary, Track } from '../core/types';
+import { parseScenario, ScenarioError } from '../core/scenario';
+import { trackStage } from '../core/ephemeris';
+import { galacticSummary, hoursSummary, usableMaskStage, zenithSummary } from '../core/usable';
+import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, type HitMap } from '../core/coverage';
+import { frequencySummary } from '../core/stats';
+import { stepMin } from '../core/time';
+
+export type ProgressFn = (stage: string, fraction: number) => void;
+
+export interface RunOptions {
+  onProgress?: ProgressFn;
+  signal?: AbortSignal;
+  /** a previous result whose unchanged stages are reused */
+  reuse?: PlanResult;
+  /** for tests: the clock the slicing reads (ms); default performance.now */
+  clock?: () => number;
+}
+
+/** Work between two turns of the event loop (ms). Progress goes out at each turn. */
+export const SLICE_MS = 50;
+
+export const STAGES = ['ephemeris', 'usable', 'hits', 'exposure', 'summary'] as const;
+
+export class CancelledError extends Error {
+  constructor(message = 'The computation was cancelled') {
+    super(message);
+    this.name = 'CancelledError';
+  }
+}
+
+/** What a result keeps beside its public fields for the next run's reuse (never exported). */
+interface Internals {
+  hit: HitMap;
+}
+const internals = new WeakMap<PlanResult, Internals>();
+
+/** A macrotask: setImmediate in Node, a MessageChannel message in browsers and workers. */
+const macrotask: () => Promise<void> = (() => {
+  const g = globalThis as { setImmediate?: (f: () => void) => unknown };
+  if (typeof g.setImmediate === 'function') return () => new Promise<void>((r) => g.setImmediate!(r));
+  if (typeof MessageChannel === 'function') {
+    const ch = new MessageChannel();
+    const queue: (() => void)[] = [];
+    ch.port1.onmessage = () => queue.shift()?.();
+    return () => new Promise<void>((r) => { queue.push(r); ch.port2.postMessage(0); });
+  }
+  return () => new Promise<void>((r) => setTimeout(r, 0));
+})();
+
+class Driver {
+  private lastTurn: number;
+  constructor(
+    private readonly clock: () => number,
+    private readonly onProgress: ProgressFn | undefined,
+    private readonly signal: AbortSignal | undefined,
+  ) {
+    this.lastTurn = clock();
+  }
+
+  check(): void {
+    if (this.signal?.aborted) throw new CancelledError();
+  }
+
+  /** Reports progress; once cancelled, nothing more is reported (the run stops here instead). */
+  report(stage: string, fraction: number): void {
+    this.check();
+    this.onProgress?.(stage, Math.max(0, Math.min(1, fraction)));
+  }
+
+  /** Hands the event loop a turn if a slice of work has passed; then checks for a cancel. */
+  async maybeTurn(stage: string, fraction: number): Promise<void> {
+    if (this.clock() - this.lastTurn < SLICE_MS) return;
+    this.report(stage, fraction);
+    await macrotask();
+    this.check();
+    this.lastTurn = this.clock();
+  }
+
+  /** Runs one stage to completion; `lo..hi` is its share of the named stage's progress. */
+  async run<T>(stage: string, gen: Stage<T>, lo = 0, hi = 1): Promise<T> {
+    this.check();
+    for (;;) {
+      const r = gen.next();
+      if (r.done) return r.value;
+      await this.maybeTurn(stage, lo + (hi - lo) * r.value);
+    }
+  }
+}
+
+function sameJson(a: unknown, b: unknown): boolean {
+  return JSON.stringify(a) === JSON.stringify(b);
+}
+
+/**
+ * The track of `prev` serves `s` when the site and span are the same and its
+ * step is what `s` asks for; with the automatic step (which follows the
+ * narrowest beam) a track at least as fine also serves, so switching
+ * frequencies recomputes the ephemeris only when the step must get finer.
+ * The summary reports the step actually used.
+ */
+function trackReusable(prev: PlanResult, s: Scenario): boolean {
+  const p = prev.scenario;
+  if (!sameJson(p.site, s.site) || p.span.start !== s.span.start || p.span.end !== s.span.end) return false;
+  if (s.span.step_min !== null) return prev.track.step_min === s.span.step_min;
+  return p.span.step_min === null && prev.track.step_min <= stepMin(s);
+}
+
+function validated(scenario: Scenario): Scenario {
+  const r = parseScenario(scenario);
+  if (!r.ok) throw new ScenarioError(r.issues);
+  return r.scenario;
+}
+
+export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<PlanResult> {
+  const d = new Driver(opts.clock ?? (() => performance.now()), opts.onProgress, opts.signal);
+  d.check();
+  const s = validated(input);
+  const prev = opts.reuse;
+
+  // Ephemeris
+  let track: Track;
+  const keepTrack = prev !== undefined && trackReusable(prev, s);
+  d.report('ephemeris', 0);
+  if (keepTrack) track = prev!.track;
+  else track = await d.run('ephemeris', trackStage(s, { mode: 'fast' }));
+  d.report('ephemeris', 1);
+
+  // Usable flags
+  let usable: Uint8Array;
+  const keepUsable = keepTrack && sameJson(prev!.scenario.constraints, s.constraints);
+  d.report('usable', 0);
+  if (keepUsable) usable = prev!.usable;
+  else usable = await d.run('usable', usableMaskStage(track, s.constraints));
+  d.report('usable', 1);
+
+  // Hit map, fine enough for the narrowest beam
+  const beams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam));
+  const fwhmMin = Math.min(...beams.map((b) => b.fwhmRad));
+  const needNside = hitNsideFor(fwhmMin);
+  d.report('hits', 0);
+  const prevHit = keepUsable ? internals.get(prev!)?.hit : undefined;
+  const hit = prevHit && prevHit.nside === needNside ? prevHit : await d.run('hits', hitMapStage(track, usable, { nside: needNside }));
+  d.report('hits', 1);
+
+  // Exposure and covered sky per frequency
+  const nside = s.map.nside;
+  const maps: Float32Array[] = [];
+  const freqs: FrequencySummary[] = [];
+  const nf = beams.length;
+  d.report('exposure', 0);
+  for (let k = 0; k < nf; k++) {
+    const lo = k / nf, mid = (k + 0.8) / nf, hi = (k + 1) / nf;
+    const map = await d.run('exposure', exposureStage(hit, beams[k], nside), lo, mid);
+    const covered = await d.run('exposure', coveredStage(hit, beams[k].fwhmRad / 2, nside), mid, hi);
+    maps.push(map);
+    freqs.push(
+      frequencySummary({ mhz: s.telescope.frequencies_mhz[k], fwhmRad: beams[k].fwhmRad, exposure: map, covered, track, usable, map: s.map }),
+    );
+    await d.maybeTurn('exposure', hi);
+  }
+  d.report('exposure', 1);
+
+  d.report('summary', 0);
+  const summary: Summary = {
+    format: 'swathe.summary/1',
+    scenario: s,
+    step_min: track.step_min,
+    samples: track.n,
+    hours: hoursSummary(track, usable, s.constraints),
+    zenith: zenithSummary(track),
+    galactic: galacticSummary(track, usable, s.map),
+    frequencies: freqs,
+  };
+  d.check();
+  d.report('summary', 1);
+  const result: PlanResult = { scenario: s, track, usable, maps, summary };
+  internals.set(result, { hit });
+  return result;
+}
