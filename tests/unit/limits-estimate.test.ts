@@ -1,0 +1,66 @@
+import { describe, expect, it } from 'vitest';
+import { RUN_LIMITS, describeEstimate, estimateRun } from '../../src/core/limits';
+import { DEMO_SCENARIO } from '../../src/core/demo';
+import { sampleCount, stepMin } from '../../src/core/time';
+import type { Scenario } from '../../src/core/types';
+
+// Limits stated before a run (issue 6 item 3: more than 20 million samples, or
+// nside above 1024, is refused with a message saying which setting to change).
+
+const withSpan = (s: Scenario, end: string, step: number | null = s.span.step_min): Scenario => ({ ...s, span: { ...s.span, end, step_min: step } });
+
+describe('estimateRun', () => {
+  it('counts samples exactly as the sampling grid does', () => {
+    for (const s of [DEMO_SCENARIO, withSpan(DEMO_SCENARIO, '2031-03-02T00:00:00Z', 7)]) {
+      const e = estimateRun(s);
+      expect(e.samples).toBe(sampleCount(s));
+      expect(e.step_min).toBe(stepMin(s));
+      expect(e.problems).toEqual([]);
+      expect(e.memory_mb).toBeGreaterThan(0);
+      expect(e.seconds_estimate).toBeGreaterThan(0);
+    }
+    // 1 day at 10 min = 144 samples; 2 days = 288
+    expect(estimateRun(withSpan(DEMO_SCENARIO, '2031-03-02T00:00:00Z', 10)).samples).toBe(144);
+  });
+
+  it('memory and time grow with samples and with map size', () => {
+    const a = estimateRun(withSpan(DEMO_SCENARIO, '2031-04-01T00:00:00Z', 1));
+    const b = estimateRun(withSpan(DEMO_SCENARIO, '2031-05-01T00:00:00Z', 1));
+    expect(b.memory_mb).toBeGreaterThan(a.memory_mb);
+    expect(b.seconds_estimate).toBeGreaterThan(a.seconds_estimate);
+    const big = estimateRun({ ...DEMO_SCENARIO, map: { ...DEMO_SCENARIO.map, nside: 1024 } });
+    expect(big.memory_mb).toBeGreaterThan(estimateRun(DEMO_SCENARIO).memory_mb + 12 * 1024 * 1024 * 4 * 4 / 1e6 - 1);
+  });
+
+  it('refuses more than 20 million samples, naming span.step_min and the step that would do', () => {
+    expect(RUN_LIMITS.max_samples).toBe(20_000_000);
+    // 2 years at 0.05 min = 21,038,400 samples
+    const s = withSpan({ ...DEMO_SCENARIO, span: { ...DEMO_SCENARIO.span, start: '2031-01-01T00:00:00Z' } }, '2033-01-01T00:00:00Z', 0.05);
+    const e = estimateRun(s);
+    expect(e.samples).toBe(21_052_800);
+    expect(e.problems).toEqual([{
+      field: 'span.step_min',
+      message: 'the run needs 21,052,800 samples: 731 days at a step of 0.05 minutes; the limit is 20,000,000: set span.step_min to at least 0.053 minutes, or shorten the span (span.end)',
+    }]);
+    // at the suggested step the run fits
+    expect(estimateRun({ ...s, span: { ...s.span, step_min: 0.053 } }).problems).toEqual([]);
+  });
+
+  it('says when the automatic step (set by the narrowest beam) is what makes a run too long', () => {
+    const s: Scenario = { ...withSpan(DEMO_SCENARIO, '2080-01-01T00:00:00Z', null), telescope: { ...DEMO_SCENARIO.telescope, aperture_m: 40000 } };
+    const e = estimateRun(s);
+    expect(e.problems).toHaveLength(1);
+    expect(e.problems[0].field).toBe('span.step_min');
+    expect(e.problems[0].message).toMatch(/at an automatic step of [\d.]+ minutes, set by the narrowest beam; the limit is 20,000,000: set span\.step_min to at least [\d.]+ minutes/);
+  });
+
+  it('refuses nside above 1024 even in a hand-built scenario', () => {
+    const e = estimateRun({ ...DEMO_SCENARIO, map: { ...DEMO_SCENARIO.map, nside: 2048 } });
+    expect(e.problems.map((p) => p.field)).toEqual(['map.nside']);
+    expect(e.problems[0].message).toBe('map.nside must be at most 1024 here, got 2048: choose a smaller map.nside');
+  });
+
+  it('describes an estimate in one line', () => {
+    expect(describeEstimate(estimateRun(withSpan(DEMO_SCENARIO, '2031-03-02T00:00:00Z', 10)))).toMatch(/^144 samples at 10 min, about \d+ MB, about [\d.]+ s$/);
+  });
+});
