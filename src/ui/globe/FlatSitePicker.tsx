@@ -1,0 +1,86 @@
+import { useEffect, useRef, type JSX } from 'react';
+import type { BodyName } from '../../core/types';
+import { BODY_COLOURS, BODY_NAMES, cssRgb, roundPick, shadingAt, shadingColour, type ShadingGrid } from './globeMath';
+
+// The fallback when WebGL is off: the body as a flat latitude/longitude map
+// (east to the right), with the same grid, shading and site marker; a click picks.
+
+export function FlatSitePicker(props: {
+  body: BodyName;
+  lat_deg: number;
+  lon_deg: number;
+  onPick: (lat: number, lon: number) => void;
+  shading: ShadingGrid | null;
+  width: number;
+}): JSX.Element {
+  const { body, lat_deg, lon_deg, onPick, shading, width } = props;
+  const ref = useRef<HTMLCanvasElement | null>(null);
+  const w = Math.max(200, Math.floor(width));
+  const h = Math.round(w / 2);
+
+  useEffect(() => {
+    const c = ref.current;
+    if (!c) return;
+    c.width = w;
+    c.height = h;
+    const ctx = c.getContext('2d');
+    if (!ctx) return;
+    const img = ctx.createImageData(w, h);
+    const base = BODY_COLOURS[body];
+    for (let j = 0; j < h; j++) {
+      const lat = 90 - ((j + 0.5) / h) * 180;
+      for (let i = 0; i < w; i++) {
+        const lon = -180 + ((i + 0.5) / w) * 360;
+        const col = shading ? shadingColour(shadingAt(shading, lat, lon)) : base;
+        const k = 4 * (j * w + i);
+        img.data[k] = col[0] * 255;
+        img.data[k + 1] = col[1] * 255;
+        img.data[k + 2] = col[2] * 255;
+        img.data[k + 3] = 255;
+      }
+    }
+    ctx.putImageData(img, 0, 0);
+    ctx.strokeStyle = 'rgba(0,0,0,0.45)';
+    ctx.lineWidth = 1;
+    ctx.font = '11px sans-serif';
+    ctx.fillStyle = '#111';
+    for (let lon = -150; lon < 180; lon += 30) {
+      const x = ((lon + 180) / 360) * w;
+      ctx.beginPath(); ctx.moveTo(x, 0); ctx.lineTo(x, h); ctx.stroke();
+      if (lon % 90 === 0) ctx.fillText(`${Math.abs(lon)}°${lon < 0 ? 'W' : lon > 0 ? 'E' : ''}`, x + 2, h - 4);
+    }
+    for (let lat = -60; lat <= 60; lat += 30) {
+      const y = ((90 - lat) / 180) * h;
+      ctx.beginPath(); ctx.moveTo(0, y); ctx.lineTo(w, y); ctx.stroke();
+      ctx.fillText(`${Math.abs(lat)}°${lat < 0 ? 'S' : lat > 0 ? 'N' : ''}`, 2, y - 2);
+    }
+    if (Number.isFinite(lat_deg) && Number.isFinite(lon_deg)) {
+      const x = ((((lon_deg + 180) % 360) + 360) % 360 / 360) * w;
+      const y = ((90 - lat_deg) / 180) * h;
+      ctx.beginPath();
+      ctx.arc(x, y, 5, 0, 2 * Math.PI);
+      ctx.fillStyle = '#e8112d';
+      ctx.fill();
+      ctx.strokeStyle = '#fff';
+      ctx.lineWidth = 2;
+      ctx.stroke();
+    }
+    c.dataset.ready = '1';
+  }, [body, lat_deg, lon_deg, shading, w, h]);
+
+  return (
+    <canvas
+      ref={ref}
+      data-testid="site-flat-map"
+      role="img"
+      aria-label={`Flat map of the ${BODY_NAMES[body]}: click to move the site (now ${lat_deg.toFixed(2)}°, ${lon_deg.toFixed(2)}°)`}
+      style={{ width: w, height: h, display: 'block', cursor: 'crosshair', background: cssRgb(BODY_COLOURS[body]) }}
+      onClick={(e) => {
+        const r = e.currentTarget.getBoundingClientRect();
+        const lon = -180 + ((e.clientX - r.left) / r.width) * 360;
+        const lat = 90 - ((e.clientY - r.top) / r.height) * 180;
+        onPick(...roundPick(lat, lon));
+      }}
+    />
+  );
+}

@@ -1,0 +1,456 @@
+import { useEffect, useRef, useState, type JSX } from 'react';
+import * as THREE from 'three';
+import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
+import type { BodyName } from '../../core/types';
+import {
+  BODY_COLOURS,
+  bodyFixedToScene,
+  BODY_NAMES,
+  cssRgb,
+  latLonToScene,
+  roundPick,
+  sceneToLatLon,
+  shadingAt,
+  shadingColour,
+  shadingProblem,
+  type V3,
+} from './globeMath';
+import { FlatSitePicker } from './FlatSitePicker';
+
+export interface GlobeShading {
+  nLat: number;
+  nLon: number;
+  /** Cell centres. */
+  lat_deg: Float64Array;
+  lon_deg: Float64Array;
+  /** Row-major lat x lon, 0..1 (fraction of time the Earth is above the horizon). */
+  fraction: Float32Array;
+  label?: string;
+}
+
+export interface SiteGlobeProps {
+  body: BodyName;
+  lat_deg: number;
+  lon_deg: number;
+  /** Click (not drag) on the sphere; lon in [-180, 180). */
+  onPick: (lat_deg: number, lon_deg: number) => void;
+  /** Unit vectors in the BODY-FIXED frame (x: lat 0 lon 0, z: north pole). */
+  sunDir?: [number, number, number] | null;
+  earthDir?: [number, number, number] | null;
+  shading?: GlobeShading | null;
+}
+
+const CLICK_SLOP_PX = 4;
+const CAMERA_DISTANCE = 3.4;
+const SUN_COLOUR = 0xffb000;
+const EARTH_ARROW_COLOUR = 0x3d8bff;
+const SITE_COLOUR = 0xe8112d;
+
+function webglAvailable(): boolean {
+  try {
+    const c = document.createElement('canvas');
+    return !!(c.getContext('webgl2') || c.getContext('webgl'));
+  } catch {
+    return false;
+  }
+}
+
+/** Text on a sprite, drawn into a small canvas (no fonts or images fetched). */
+function labelSprite(text: string, colour: string, scale = 0.22): THREE.Sprite {
+  const c = document.createElement('canvas');
+  const ctx = c.getContext('2d')!;
+  const font = 'bold 40px "DejaVu Sans", Arial, sans-serif';
+  ctx.font = font;
+  const w = Math.ceil(ctx.measureText(text).width) + 16;
+  c.width = w;
+  c.height = 56;
+  ctx.font = font;
+  ctx.textBaseline = 'middle';
+  ctx.lineWidth = 8;
+  ctx.strokeStyle = 'rgba(0,0,0,0.85)';
+  ctx.strokeText(text, 8, 28);
+  ctx.fillStyle = colour;
+  ctx.fillText(text, 8, 28);
+  const tex = new THREE.CanvasTexture(c);
+  tex.colorSpace = THREE.SRGBColorSpace;
+  const sprite = new THREE.Sprite(new THREE.SpriteMaterial({ map: tex, depthTest: false, transparent: true }));
+  sprite.scale.set((scale * w) / 56, scale, 1);
+  sprite.renderOrder = 10;
+  return sprite;
+}
+
+function v3(a: V3): THREE.Vector3 {
+  return new THREE.Vector3(a[0], a[1], a[2]);
+}
+
+/** Latitude/longitude lines every 30 deg (equator and prime meridian stronger), just above the surface. */
+function gridLines(): THREE.Group {
+  const g = new THREE.Group();
+  const r = 1.003;
+  const minor: number[] = [];
+  const major: number[] = [];
+  const push = (arr: number[], a: V3, b: V3) => arr.push(...a, ...b);
+  for (let lat = -60; lat <= 60; lat += 30) {
+    const arr = lat === 0 ? major : minor;
+    for (let lon = 0; lon < 360; lon += 3) push(arr, latLonToScene(lat, lon, r), latLonToScene(lat, lon + 3, r));
+  }
+  for (let lon = -180; lon < 180; lon += 30) {
+    const arr = lon === 0 ? major : minor;
+    for (let lat = -90; lat < 90; lat += 3) push(arr, latLonToScene(lat, lon, r), latLonToScene(lat + 3, lon, r));
+  }
+  const mk = (pts: number[], colour: number, opacity: number) => {
+    const geo = new THREE.BufferGeometry();
+    geo.setAttribute('position', new THREE.Float32BufferAttribute(pts, 3));
+    return new THREE.LineSegments(geo, new THREE.LineBasicMaterial({ color: colour, transparent: true, opacity }));
+  };
+  g.add(mk(minor, 0x1b1b24, 0.45));
+  g.add(mk(major, 0x101018, 0.85));
+  // A few labels so the user knows which way is east.
+  const labels: [number, number, string][] = [
+    [0, 0, '0°'], [0, 90, '90°E'], [0, 180, '180°'], [0, -90, '90°W'], [60, 0, '60°N'], [-60, 0, '60°S'],
+  ];
+  for (const [lat, lon, t] of labels) {
+    const s = labelSprite(t, '#ffffff', 0.09);
+    s.position.copy(v3(latLonToScene(lat, lon, 1.04)));
+    g.add(s);
+  }
+  return g;
+}
+
+/** Per-vertex surface colours: the body colour, or the Earth-visibility shading for the Moon. */
+function paintSurface(geo: THREE.BufferGeometry, body: BodyName, shading: GlobeShading | null): void {
+  const pos = geo.getAttribute('position') as THREE.BufferAttribute;
+  const colours = new Float32Array(pos.count * 3);
+  const base = BODY_COLOURS[body];
+  for (let i = 0; i < pos.count; i++) {
+    let c = base;
+    if (shading) {
+      const [lat, lon] = sceneToLatLon([pos.getX(i), pos.getY(i), pos.getZ(i)]);
+      c = shadingColour(shadingAt(shading, lat, lon));
+    }
+    colours[3 * i] = c[0];
+    colours[3 * i + 1] = c[1];
+    colours[3 * i + 2] = c[2];
+  }
+  geo.setAttribute('color', new THREE.BufferAttribute(colours, 3));
+  (geo.getAttribute('color') as THREE.BufferAttribute).needsUpdate = true;
+}
+
+function directionArrow(dir: V3, colour: number, text: string, cssColour: string): THREE.Group {
+  const g = new THREE.Group();
+  const d = v3(dir).normalize();
+  const from = d.clone().multiplyScalar(1.04);
+  const arrow = new THREE.ArrowHelper(d, from, 0.62, colour, 0.16, 0.09);
+  g.add(arrow);
+  const s = labelSprite(text, cssColour, 0.13);
+  s.position.copy(d.clone().multiplyScalar(1.82));
+  g.add(s);
+  return g;
+}
+
+interface Scene3 {
+  renderer: THREE.WebGLRenderer;
+  scene: THREE.Scene;
+  camera: THREE.PerspectiveCamera;
+  controls: OrbitControls;
+  surface: THREE.Mesh<THREE.SphereGeometry, THREE.MeshLambertMaterial>;
+  site: THREE.Group;
+  arrows: THREE.Group;
+  render: () => void;
+  dispose: () => void;
+}
+
+function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
+  const renderer = new THREE.WebGLRenderer({ canvas, antialias: true, preserveDrawingBuffer: true });
+  renderer.setPixelRatio(Math.min(2, window.devicePixelRatio || 1));
+  renderer.setClearColor(0x0b1020, 1);
+  const scene = new THREE.Scene();
+  const camera = new THREE.PerspectiveCamera(32, 1, 0.1, 100);
+  camera.position.set(0, 0, CAMERA_DISTANCE);
+  // Even light from the viewer's side (a headlight) so no part of the view is hidden in shadow.
+  scene.add(new THREE.AmbientLight(0xffffff, 1.3));
+  const head = new THREE.DirectionalLight(0xffffff, 1.6);
+  camera.add(head);
+  head.position.set(0.4, 0.6, 1);
+  scene.add(camera);
+
+  const surface = new THREE.Mesh(
+    new THREE.SphereGeometry(1, 144, 72),
+    new THREE.MeshLambertMaterial({ vertexColors: true }),
+  );
+  scene.add(surface);
+  scene.add(gridLines());
+
+  const site = new THREE.Group();
+  const dot = new THREE.Mesh(new THREE.SphereGeometry(0.035, 16, 12), new THREE.MeshBasicMaterial({ color: SITE_COLOUR }));
+  const ring = new THREE.Mesh(
+    new THREE.RingGeometry(0.045, 0.062, 32),
+    new THREE.MeshBasicMaterial({ color: 0xffffff, side: THREE.DoubleSide }),
+  );
+  ring.position.z = 0.002;
+  const zenith = new THREE.ArrowHelper(new THREE.Vector3(0, 0, 1), new THREE.Vector3(0, 0, 0), 0.22, SITE_COLOUR, 0.06, 0.04);
+  site.add(dot, ring, zenith);
+  scene.add(site);
+
+  const arrows = new THREE.Group();
+  scene.add(arrows);
+
+  const controls = new OrbitControls(camera, canvas);
+  controls.enablePan = false;
+  controls.enableDamping = false;
+  controls.minDistance = 1.6;
+  controls.maxDistance = 8;
+  controls.rotateSpeed = 0.6;
+
+  let pending = false;
+  const render = () => {
+    if (pending) return;
+    pending = true;
+    requestAnimationFrame(() => {
+      pending = false;
+      renderer.render(scene, camera);
+      onRendered();
+    });
+  };
+  controls.addEventListener('change', render);
+
+  const dispose = () => {
+    controls.dispose();
+    scene.traverse((o) => {
+      const m = o as THREE.Mesh;
+      if (m.geometry) m.geometry.dispose();
+      const mat = (m as { material?: THREE.Material | THREE.Material[] }).material;
+      for (const x of Array.isArray(mat) ? mat : mat ? [mat] : []) {
+        (x as THREE.SpriteMaterial).map?.dispose();
+        x.dispose();
+      }
+    });
+    renderer.dispose();
+  };
+  return { renderer, scene, camera, controls, surface, site, arrows, render, dispose };
+}
+
+/** Points the camera at (lat, lon) from its current distance, north up. */
+function faceSite(s: Scene3, lat: number, lon: number): void {
+  const dist = s.camera.position.length() || CAMERA_DISTANCE;
+  // Tilt a little off the pole so OrbitControls never sits exactly on its axis.
+  const la = Math.max(-85, Math.min(85, lat));
+  s.camera.position.copy(v3(latLonToScene(la, lon, dist)));
+  s.camera.up.set(0, 1, 0);
+  s.controls.target.set(0, 0, 0);
+  s.controls.update();
+}
+
+function ShadingLegend({ shading }: { shading: GlobeShading }): JSX.Element {
+  const stops = [0.001, 0.25, 0.5, 0.75, 1].map((t) => `${cssRgb(shadingColour(t))} ${t * 100}%`).join(', ');
+  return (
+    <div className="globe-legend" style={{ font: '12px/1.4 system-ui, sans-serif', marginTop: 4 }}>
+      <div>{shading.label ?? 'Earth above the horizon (fraction of time)'}</div>
+      <div style={{ display: 'flex', alignItems: 'center', gap: 6, flexWrap: 'wrap' }}>
+        <span aria-hidden="true" style={{ display: 'inline-block', width: 14, height: 12, background: cssRgb(shadingColour(0)), border: '1px solid #555' }} />
+        <span>never</span>
+        <span aria-hidden="true" style={{ display: 'inline-block', width: 120, height: 12, background: `linear-gradient(to right, ${stops})`, border: '1px solid #555' }} />
+        <span>0 → 100 % of the time</span>
+      </div>
+    </div>
+  );
+}
+
+function ArrowLegend({ body, sun, earth }: { body: BodyName; sun: boolean; earth: boolean }): JSX.Element {
+  const item = (colour: string, text: string) => (
+    <span style={{ whiteSpace: 'nowrap' }}>
+      <span aria-hidden="true" style={{ display: 'inline-block', width: 16, height: 3, background: colour, verticalAlign: 'middle', marginRight: 4 }} />
+      {text}
+    </span>
+  );
+  return (
+    <div style={{ font: '12px/1.4 system-ui, sans-serif', display: 'flex', gap: 12, flexWrap: 'wrap', marginTop: 4 }}>
+      {item('#e8112d', `Site on the ${BODY_NAMES[body]} (arrow: zenith)`)}
+      {sun && item('#ffb000', 'Direction of the Sun')}
+      {earth && item('#3d8bff', 'Direction of the Earth')}
+    </div>
+  );
+}
+
+export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
+  const { body, lat_deg, lon_deg, onPick, sunDir, earthDir, shading } = props;
+  const boxRef = useRef<HTMLDivElement | null>(null);
+  const canvasRef = useRef<HTMLCanvasElement | null>(null);
+  const s3 = useRef<Scene3 | null>(null);
+  const renderCount = useRef(0);
+  const lastPick = useRef<[number, number] | null>(null);
+  const onPickRef = useRef(onPick);
+  onPickRef.current = onPick;
+  const [size, setSize] = useState(0);
+  const [glError, setGlError] = useState<string | null>(() => (typeof document !== 'undefined' && !webglAvailable() ? 'WebGL is off' : null));
+  const shadeIssue = shading ? shadingProblem(shading) : null;
+  const usedShading = body === 'moon' && shading && !shadeIssue ? shading : null;
+
+  // Size: the parent's width, square.
+  useEffect(() => {
+    const el = boxRef.current;
+    if (!el) return;
+    setSize(Math.floor(el.clientWidth));
+    const ro = new ResizeObserver((entries) => {
+      const w = Math.floor(entries[0]?.contentRect.width ?? 0);
+      if (w > 0) setSize(w);
+    });
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, []);
+
+  // Build the scene once (per canvas).
+  useEffect(() => {
+    const canvas = canvasRef.current;
+    if (!canvas || glError) return;
+    let s: Scene3;
+    try {
+      s = buildScene(canvas, () => {
+        renderCount.current += 1;
+        canvas.dataset.renderCount = String(renderCount.current);
+        canvas.dataset.ready = '1';
+      });
+    } catch (e) {
+      setGlError(e instanceof Error && e.message ? `WebGL is off (${e.message})` : 'WebGL is off');
+      return;
+    }
+    s3.current = s;
+    const onLost = (ev: Event) => {
+      ev.preventDefault();
+      setGlError('WebGL context lost');
+    };
+    canvas.addEventListener('webglcontextlost', onLost);
+
+    // Click vs drag: a press and release within CLICK_SLOP_PX is a pick.
+    let down: { x: number; y: number; id: number } | null = null;
+    const onDown = (e: PointerEvent) => {
+      if (e.button !== 0) return;
+      down = { x: e.clientX, y: e.clientY, id: e.pointerId };
+    };
+    const onUp = (e: PointerEvent) => {
+      const d = down;
+      down = null;
+      if (!d || d.id !== e.pointerId) return;
+      if (Math.hypot(e.clientX - d.x, e.clientY - d.y) >= CLICK_SLOP_PX) return;
+      const r = canvas.getBoundingClientRect();
+      const ndc = new THREE.Vector2(((e.clientX - r.left) / r.width) * 2 - 1, -((e.clientY - r.top) / r.height) * 2 + 1);
+      const ray = new THREE.Raycaster();
+      ray.setFromCamera(ndc, s.camera);
+      const hit = ray.intersectObject(s.surface, false)[0];
+      if (!hit) return;
+      const [lat, lon] = roundPick(...sceneToLatLon([hit.point.x, hit.point.y, hit.point.z]));
+      lastPick.current = [lat, lon];
+      onPickRef.current(lat, lon);
+    };
+    const onKey = (e: KeyboardEvent) => {
+      const step = (e.shiftKey ? 15 : 5) * (Math.PI / 180);
+      const moves: Record<string, () => void> = {
+        ArrowLeft: () => s.controls.rotateLeft(step),
+        ArrowRight: () => s.controls.rotateLeft(-step),
+        ArrowUp: () => s.controls.rotateUp(step),
+        ArrowDown: () => s.controls.rotateUp(-step),
+      };
+      const m = moves[e.key];
+      if (!m) return;
+      e.preventDefault();
+      m();
+      s.render();
+    };
+    canvas.addEventListener('pointerdown', onDown);
+    canvas.addEventListener('pointerup', onUp);
+    canvas.addEventListener('keydown', onKey);
+    return () => {
+      canvas.removeEventListener('pointerdown', onDown);
+      canvas.removeEventListener('pointerup', onUp);
+      canvas.removeEventListener('keydown', onKey);
+      canvas.removeEventListener('webglcontextlost', onLost);
+      s.dispose();
+      s3.current = null;
+    };
+  }, [glError]);
+
+  // Resize.
+  useEffect(() => {
+    const s = s3.current;
+    if (!s || size <= 0) return;
+    s.renderer.setSize(size, size, true);
+    s.camera.aspect = 1;
+    s.camera.updateProjectionMatrix();
+    s.render();
+  }, [size, glError]);
+
+  // Surface colours follow the body and the shading.
+  useEffect(() => {
+    const s = s3.current;
+    if (!s) return;
+    paintSurface(s.surface.geometry, body, usedShading);
+    s.render();
+  }, [body, usedShading, glError]);
+
+  // Re-aim the camera when the body changes.
+  useEffect(() => {
+    const s = s3.current;
+    if (!s) return;
+    faceSite(s, lat_deg, lon_deg);
+    s.render();
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [body, glError]);
+
+  // Site marker; the camera follows a site typed into the form, not one just clicked.
+  useEffect(() => {
+    const s = s3.current;
+    if (!s || !Number.isFinite(lat_deg) || !Number.isFinite(lon_deg)) return;
+    const p = v3(latLonToScene(lat_deg, lon_deg, 1.0));
+    s.site.position.copy(p);
+    s.site.lookAt(p.clone().multiplyScalar(2));
+    const lp = lastPick.current;
+    const fromPick = lp && Math.abs(lp[0] - lat_deg) < 1e-9 && Math.abs(lp[1] - lon_deg) < 1e-9;
+    if (!fromPick) faceSite(s, lat_deg, lon_deg);
+    s.render();
+  }, [lat_deg, lon_deg, glError]);
+
+  // Sun and Earth arrows.
+  useEffect(() => {
+    const s = s3.current;
+    if (!s) return;
+    for (const c of [...s.arrows.children]) {
+      s.arrows.remove(c);
+      c.traverse((o) => {
+        const m = o as THREE.Mesh;
+        m.geometry?.dispose();
+        const mat = (m as { material?: THREE.Material }).material;
+        (mat as THREE.SpriteMaterial | undefined)?.map?.dispose();
+        mat?.dispose();
+      });
+    }
+    const ok = (d: unknown): d is V3 => Array.isArray(d) && d.length === 3 && d.every(Number.isFinite) && Math.hypot(...(d as V3)) > 0;
+    if (ok(sunDir)) s.arrows.add(directionArrow(bodyFixedToScene(sunDir), SUN_COLOUR, 'Sun', '#ffc640'));
+    if (body === 'moon' && ok(earthDir)) s.arrows.add(directionArrow(bodyFixedToScene(earthDir), EARTH_ARROW_COLOUR, 'Earth', '#7fb2ff'));
+    s.render();
+  }, [sunDir, earthDir, body, glError]);
+
+  const fallback = glError !== null;
+  return (
+    <div ref={boxRef} data-testid="site-globe" style={{ width: '100%', minWidth: 0 }}>
+      {fallback ? (
+        <div role="group" aria-label={`Site picker for the ${BODY_NAMES[body]} (flat map)`}>
+          <p role="status" style={{ margin: '0 0 4px', font: '13px system-ui, sans-serif' }}>
+            3D globe unavailable: {glError}. Showing a flat latitude/longitude map instead; click it to pick the site.
+          </p>
+          <FlatSitePicker body={body} lat_deg={lat_deg} lon_deg={lon_deg} onPick={onPick} shading={usedShading} width={size || 320} />
+        </div>
+      ) : (
+        <canvas
+          ref={canvasRef}
+          tabIndex={0}
+          role="img"
+          aria-label={`Globe of the ${BODY_NAMES[body]} with the site at latitude ${lat_deg.toFixed(2)}°, longitude ${lon_deg.toFixed(2)}°. Drag or use the arrow keys to turn it; click to move the site.`}
+          style={{ width: size || '100%', height: size || undefined, display: 'block', cursor: 'grab', touchAction: 'none', borderRadius: 6 }}
+        />
+      )}
+      {shadeIssue && <p role="status" style={{ font: '12px system-ui, sans-serif', color: '#a00' }}>Shading not shown: {shadeIssue}</p>}
+      <ArrowLegend body={body} sun={!!sunDir} earth={body === 'moon' && !!earthDir} />
+      {usedShading && <ShadingLegend shading={usedShading} />}
+    </div>
+  );
+}
