@@ -72,7 +72,8 @@ describe('coverageFits', () => {
     // rebuild the value per the CONTINUE convention: strip the quotes and the trailing '&'
     const text = cs.map((c) => /'(.*)'/.exec(c)![1]).map((s) => s.replace(/&$/, '')).join('').replace(/''/g, "'");
     expect(text).toBe(long);
-    const evil = syntheticScenario({ name: "x' / END = T\nSIMPLE  = F" });
+    // validation already refuses control characters; the writer must still be safe on its own
+    const evil = { ...syntheticScenario(), name: "x' / END = T\nSIMPLE  = F" };
     const e = cards(coverageFits(syntheticResult(evil)), 2880);
     expect(e.cards.filter((c) => c.startsWith('END     '))).toHaveLength(1);
     expect(value(e.cards, 'SCENNAME')).toBe("'x'' / END = T?SIMPLE  = F'");
