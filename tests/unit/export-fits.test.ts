@@ -19,7 +19,9 @@ function cards(bytes: Uint8Array, start: number): { cards: string[]; end: number
 
 function value(cs: string[], key: string): string | undefined {
   const c = cs.find((x) => x.startsWith(key.padEnd(8) + '='));
-  return c?.slice(10).replace(/\s*\/.*$/, '').trim();
+  if (!c) return undefined;
+  const str = /^'((?:[^']|'')*)'/.exec(c.slice(10)); // a string value may hold ' / '
+  return str ? str[0] : c.slice(10).replace(/\s*\/.*$/, '').trim();
 }
 
 describe('coverageFits', () => {
