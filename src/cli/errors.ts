@@ -20,6 +20,6 @@ export class InputError extends Error {
 /** One printable line: control characters (newlines included) become spaces, long text is cut. */
 export function oneLine(text: string, max = 2000): string {
   // eslint-disable-next-line no-control-regex
-  const s = text.replace(/[\u0000-\u001f\u007f-\u009f]+/g, ' ').trim();
+  const s = text.replace(/\s*[\u0000-\u001f\u007f-\u009f]+\s*/g, ' ').trim();
   return s.length > max ? s.slice(0, max - 3) + '...' : s;
 }
