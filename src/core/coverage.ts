@@ -4,7 +4,7 @@
 // in hours. Done in two parts so the cost grows with the number of samples
 // only through the cheap one:
 //   1. hit map: every usable sample's interval is walked along the path from
-//      its zenith to the next one in sub-steps no longer than half a fine
+//      its zenith to the next one in sub-steps no longer than one fine
 //      pixel, and its hours are binned on a fine NESTED HEALPix grid, together
 //      with the hours-weighted sum of the directions (so each pixel also
 //      knows where inside it the time was spent: its centroid);
@@ -25,8 +25,8 @@ import { nside2npix, nside2resolRad, pix2vecNest, queryDiscRingRanges, pixelCent
 export const MAX_HIT_NSIDE = 8192;
 /** Hit pixels for the shared fine map: resolution at most FWHM_min / this. */
 export const FINE_HIT_PER_FWHM = 10;
-/** Hit pixels used for a beam's exposure: resolution at most FWHM / this. */
-export const EXPOSURE_HIT_PER_FWHM = 8;
+/** Hit pixels used for a beam's exposure: resolution at most FWHM / this (with centroids the maps stay within ~0.2% of the exact ones). */
+export const EXPOSURE_HIT_PER_FWHM = 6;
 /** Hit pixels used for the covered-sky test: resolution at most (FWHM/2) / this. */
 export const COVER_HIT_PER_RADIUS = 8;
 
@@ -60,8 +60,8 @@ export function nsideForResolution(maxResolRad: number): number {
 }
 
 /** The fine hit map's nside for a set of beams: fine enough for the narrowest one. */
-export function hitNsideFor(fwhmMinRad: number): number {
-  return nsideForResolution(fwhmMinRad / FINE_HIT_PER_FWHM);
+export function hitNsideFor(fwhmMinRad: number, perFwhm = FINE_HIT_PER_FWHM): number {
+  return nsideForResolution(fwhmMinRad / perFwhm);
 }
 
 /**
@@ -127,10 +127,10 @@ const PAGE = 1 << PAGE_BITS;
 
 /**
  * Bins the usable time of the track on a NESTED grid at opts.nside, treating
- * the track as a continuous path (sub-steps of at most half a pixel between
+ * the track as a continuous path (sub-steps of at most one pixel between
  * consecutive zeniths, so no pixel the path crosses is skipped).
  */
-export function* hitMapStage(track: Track, usable: Uint8Array, opts: { nside: number }): Stage<HitMap> {
+export function* hitMapStage(track: Track, usable: Uint8Array, opts: { nside: number; stepPerPixel?: number }): Stage<HitMap> {
   const nside = opts.nside;
   if (!Number.isInteger(Math.log2(nside)) || nside < 1 || nside > MAX_HIT_NSIDE) {
     throw new RangeError(`hit map nside must be a power of two between 1 and ${MAX_HIT_NSIDE}, got ${nside}`);
@@ -139,7 +139,7 @@ export function* hitMapStage(track: Track, usable: Uint8Array, opts: { nside: nu
   // Paged accumulator: a track touches a thin band of a fine grid, and NESTED
   // indices of nearby pixels are close, so pages of 1024 pixels stay few.
   const pages: (Float64Array | undefined)[] = new Array(Math.ceil(nside2npix(nside) / PAGE));
-  const maxStep = nside2resolRad(nside) / 2;
+  const maxStep = nside2resolRad(nside) * (opts.stepPerPixel ?? 1);
   yield* walkPath(track, usable, maxStep, (x, y, z, h) => {
     const p = vec2pixNest(nside, x, y, z);
     const pi = p >>> PAGE_BITS;
@@ -257,13 +257,13 @@ function checkBeam(beam: BeamProfile): void {
 
 /**
  * Exposure in hours per RING pixel at `nside`: each hit pixel (degraded to a
- * resolution of about FWHM/8) spreads its hours over the output pixels whose
+ * resolution of FWHM/6 or finer) spreads its hours over the output pixels whose
  * centres lie within the beam's cutoff of its centroid, weighted by B.
  */
-export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number): Stage<Float32Array> {
+export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, opts: { hitPerFwhm?: number } = {}): Stage<Float32Array> {
   checkOutputNside(nside);
   checkBeam(beam);
-  const level = Math.min(hit.nside, nsideForResolution(beam.fwhmRad / EXPOSURE_HIT_PER_FWHM));
+  const level = Math.min(hit.nside, nsideForResolution(beam.fwhmRad / (opts.hitPerFwhm ?? EXPOSURE_HIT_PER_FWHM)));
   const h = degradeHitMap(hit, level);
   const centres = pixelCentersRing(nside);
   const { uMax, scale, values } = beamTable(beam);
@@ -301,10 +301,10 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number): S
  * path: a hit pixel at about radius/8 resolution marks the output pixels
  * within radiusRad of its centroid. 1 = covered.
  */
-export function* coveredStage(hit: HitMap, radiusRad: number, nside: number): Stage<Uint8Array> {
+export function* coveredStage(hit: HitMap, radiusRad: number, nside: number, opts: { hitPerRadius?: number } = {}): Stage<Uint8Array> {
   checkOutputNside(nside);
   if (!(radiusRad > 0)) throw new RangeError(`coverage radius must be > 0, got ${radiusRad}`);
-  const level = Math.min(hit.nside, nsideForResolution(radiusRad / COVER_HIT_PER_RADIUS));
+  const level = Math.min(hit.nside, nsideForResolution(radiusRad / (opts.hitPerRadius ?? COVER_HIT_PER_RADIUS)));
   const h = degradeHitMap(hit, level);
   const mask = new Uint8Array(nside2npix(nside));
   const c = new Float64Array(3);
@@ -387,16 +387,16 @@ export function naiveExposure(
   return drain(naiveExposureStage(track, usable, beam, nside, opts));
 }
 
-export function hitMap(track: Track, usable: Uint8Array, opts: { nside: number }): HitMap {
+export function hitMap(track: Track, usable: Uint8Array, opts: { nside: number; stepPerPixel?: number }): HitMap {
   return drain(hitMapStage(track, usable, opts));
 }
 
-export function exposureMap(hit: HitMap, beam: BeamProfile, nside: number): Float32Array {
-  return drain(exposureStage(hit, beam, nside));
+export function exposureMap(hit: HitMap, beam: BeamProfile, nside: number, opts: { hitPerFwhm?: number } = {}): Float32Array {
+  return drain(exposureStage(hit, beam, nside, opts));
 }
 
-export function coveredMask(hit: HitMap, radiusRad: number, nside: number): Uint8Array {
-  return drain(coveredStage(hit, radiusRad, nside));
+export function coveredMask(hit: HitMap, radiusRad: number, nside: number, opts: { hitPerRadius?: number } = {}): Uint8Array {
+  return drain(coveredStage(hit, radiusRad, nside, opts));
 }
 
 /** Relative L1 difference sum|a - b| / sum|b| (b the reference). */

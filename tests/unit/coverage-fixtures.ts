@@ -84,3 +84,21 @@ export function gaussianProfile(fwhmDeg: number): BeamProfile {
   const a = (4 * Math.LN2) / (f * f);
   return { fwhmRad: f, cutoffRad: f * Math.sqrt(Math.log(1000) / (4 * Math.LN2)), powerAt: (th) => Math.exp(-a * th * th) };
 }
+
+/** A zenith moving along a circle of constant galactic latitude (l from 0 at the start). */
+export function galacticCircleTrack(opts: { bDeg: number; rateDegPerH: number; stepMin: number; spanH: number }): Track {
+  const t = smallCircleTrack({ decDeg: 0, rateDegPerH: 0, stepMin: opts.stepMin, spanH: opts.spanH });
+  for (let i = 0; i < t.n; i++) {
+    const l = (opts.rateDegPerH * i * opts.stepMin) / 60;
+    const g = [Math.cos(opts.bDeg * DEG) * Math.cos(l * DEG), Math.cos(opts.bDeg * DEG) * Math.sin(l * DEG), Math.sin(opts.bDeg * DEG)];
+    // ICRS = transpose(ICRS_TO_GAL) * galactic
+    const m = ICRS_TO_GAL;
+    const v = [m[0] * g[0] + m[3] * g[1] + m[6] * g[2], m[1] * g[0] + m[4] * g[1] + m[7] * g[2], m[2] * g[0] + m[5] * g[1] + m[8] * g[2]];
+    t.zx[i] = v[0]; t.zy[i] = v[1]; t.zz[i] = v[2];
+    t.dec_deg[i] = Math.asin(v[2]) / DEG;
+    t.ra_deg[i] = ((Math.atan2(v[1], v[0]) / DEG) + 360) % 360;
+    t.l_deg[i] = ((l % 360) + 360) % 360;
+    t.b_deg[i] = opts.bDeg;
+  }
+  return t;
+}

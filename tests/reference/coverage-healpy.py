@@ -1,0 +1,34 @@
+#!/usr/bin/python3
+"""Independent exposure map and covered sky with healpy (the HEALPix reference
+implementation, Debian python3-healpy), for tests/reference/coverage-healpy.test.ts.
+
+Reads JSON on stdin: {"nside", "fwhm_rad", "cutoff_rad", "points": [[x, y, z, hours], ...]}
+(the usable path already cut into fine pieces). Writes JSON on stdout:
+{"exposure": [...RING order...], "covered_fraction", "healpy": version}.
+Exposure = sum over points of hours * exp(-4 ln2 theta^2 / FWHM^2) at every pixel
+centre within cutoff; covered = pixel centres within FWHM/2 of any point.
+"""
+import json
+import sys
+
+import healpy as hp
+import numpy as np
+
+d = json.load(sys.stdin)
+nside = int(d["nside"])
+fwhm = float(d["fwhm_rad"])
+cut = float(d["cutoff_rad"])
+pts = np.asarray(d["points"], dtype=float)
+npix = hp.nside2npix(nside)
+expo = np.zeros(npix)
+covered = np.zeros(npix, dtype=bool)
+a = 4 * np.log(2) / fwhm**2
+for x, y, z, w in pts:
+    v = np.array([x, y, z])
+    v /= np.linalg.norm(v)
+    ip = hp.query_disc(nside, v, cut)
+    cx, cy, cz = hp.pix2vec(nside, ip)
+    th = np.arccos(np.clip(cx * v[0] + cy * v[1] + cz * v[2], -1, 1))
+    expo[ip] += w * np.exp(-a * th * th)
+    covered[hp.query_disc(nside, v, fwhm / 2)] = True
+json.dump({"exposure": expo.tolist(), "covered_fraction": float(covered.mean()), "healpy": hp.__version__}, sys.stdout)
