@@ -41,7 +41,7 @@ export interface SiteGlobeProps {
 }
 
 const CLICK_SLOP_PX = 4;
-const CAMERA_DISTANCE = 3.4;
+const CAMERA_DISTANCE = 5.6;
 const SUN_COLOUR = 0xffb000;
 const EARTH_ARROW_COLOUR = 0x3d8bff;
 const SITE_COLOUR = 0xe8112d;
@@ -110,7 +110,7 @@ function gridLines(): THREE.Group {
     [0, 0, '0°'], [0, 90, '90°E'], [0, 180, '180°'], [0, -90, '90°W'], [60, 0, '60°N'], [-60, 0, '60°S'],
   ];
   for (const [lat, lon, t] of labels) {
-    const s = labelSprite(t, '#ffffff', 0.09);
+    const s = labelSprite(t, '#ffffff', 0.12);
     s.position.copy(v3(latLonToScene(lat, lon, 1.04)));
     g.add(s);
   }
@@ -140,10 +140,10 @@ function directionArrow(dir: V3, colour: number, text: string, cssColour: string
   const g = new THREE.Group();
   const d = v3(dir).normalize();
   const from = d.clone().multiplyScalar(1.04);
-  const arrow = new THREE.ArrowHelper(d, from, 0.62, colour, 0.16, 0.09);
+  const arrow = new THREE.ArrowHelper(d, from, 0.38, colour, 0.12, 0.08);
   g.add(arrow);
   const s = labelSprite(text, cssColour, 0.13);
-  s.position.copy(d.clone().multiplyScalar(1.82));
+  s.position.copy(d.clone().multiplyScalar(1.56));
   g.add(s);
   return g;
 }
@@ -165,7 +165,7 @@ function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
   renderer.setPixelRatio(Math.min(2, window.devicePixelRatio || 1));
   renderer.setClearColor(0x0b1020, 1);
   const scene = new THREE.Scene();
-  const camera = new THREE.PerspectiveCamera(32, 1, 0.1, 100);
+  const camera = new THREE.PerspectiveCamera(30, 1, 0.1, 100);
   camera.position.set(0, 0, CAMERA_DISTANCE);
   // Even light from the viewer's side (a headlight) so no part of the view is hidden in shadow.
   scene.add(new THREE.AmbientLight(0xffffff, 1.3));
@@ -198,8 +198,8 @@ function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
   const controls = new OrbitControls(camera, canvas);
   controls.enablePan = false;
   controls.enableDamping = false;
-  controls.minDistance = 1.6;
-  controls.maxDistance = 8;
+  controls.minDistance = 2.2;
+  controls.maxDistance = 12;
   controls.rotateSpeed = 0.6;
 
   let pending = false;
@@ -264,7 +264,7 @@ function ArrowLegend({ body, sun, earth }: { body: BodyName; sun: boolean; earth
     </span>
   );
   return (
-    <div style={{ font: '12px/1.4 system-ui, sans-serif', display: 'flex', gap: 12, flexWrap: 'wrap', marginTop: 4 }}>
+    <div style={{ font: '12px/1.4 system-ui, sans-serif', display: 'flex', columnGap: 12, rowGap: 2, flexWrap: 'wrap', marginTop: 4 }}>
       {item('#e8112d', `Site on the ${BODY_NAMES[body]} (arrow: zenith)`)}
       {sun && item('#ffb000', 'Direction of the Sun')}
       {earth && item('#3d8bff', 'Direction of the Earth')}

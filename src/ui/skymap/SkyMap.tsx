@@ -6,7 +6,8 @@ import { formatHours } from './colour';
 import {
   colourBarTitle,
   drawColourBar,
-  drawMapLayer,
+  drawOverlayLayer,
+  overlayKey,
   fitGeometry,
   frameNote,
   legendEntries,
@@ -65,7 +66,11 @@ function LegendSwatch({ e }: { e: LegendEntry }): JSX.Element {
     return <span aria-hidden="true" style={{ ...common, width: 10, height: 10, borderRadius: 5, background: e.colour, border: '1.5px solid #000', margin: '0 14px 0 8px' }} />;
   }
   if (e.kind === 'plane') {
-    return <span aria-hidden="true" style={{ ...common, height: 10, background: 'linear-gradient(#5a6a8a 0 15%, #8d98ae 15% 42%, #fff 42% 58%, #8d98ae 58% 85%, #5a6a8a 85%)' }} />;
+    return (
+      <span aria-hidden="true" style={{ ...common, position: 'relative', height: 12, background: 'repeating-linear-gradient(135deg, #d6d6d6 0 3px, #9a9a9a 3px 5px)' }}>
+        <span style={{ position: 'absolute', left: 0, right: 0, top: 4, height: 4, background: '#fff', boxShadow: '0 0 0 1px rgba(0,0,0,0.55)' }} />
+      </span>
+    );
   }
   if (e.kind === 'frequency') {
     return <span aria-hidden="true" style={{ ...common, height: 4, background: e.colour }} />;
@@ -81,6 +86,7 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
   const canvasRef = useRef<HTMLCanvasElement | null>(null);
   const barRef = useRef<HTMLCanvasElement | null>(null);
   const rasterCanvas = useRef<HTMLCanvasElement | null>(null);
+  const overlayCanvas = useRef<{ key: string; canvas: HTMLCanvasElement } | null>(null);
   const drawCount = useRef(0);
   const [width, setWidth] = useState(0);
   const [hover, setHover] = useState<{ x: number; y: number; h: SkyHover } | null>(null);
@@ -122,12 +128,26 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     const rctx = rc.getContext('2d')!;
     rctx.putImageData(new ImageData(raster.pixels as unknown as Uint8ClampedArray<ArrayBuffer>, cols, rows), 0, 0);
     const bw = Math.round(width * dpr), bh = Math.round(height * dpr);
+    // The vector layer changes only with size, frame, flip, band and beam marker: keep it drawn.
+    const okey = overlayKey(geometry, result, view, u, dpr);
+    let oc = overlayCanvas.current;
+    if (!oc || oc.key !== okey) {
+      const c = oc?.canvas ?? document.createElement('canvas');
+      c.width = bw;
+      c.height = bh;
+      const octx = c.getContext('2d')!;
+      octx.setTransform(dpr, 0, 0, dpr, 0, 0);
+      octx.clearRect(0, 0, width, height);
+      drawOverlayLayer(octx, geometry, result, view, u);
+      oc = overlayCanvas.current = { key: okey, canvas: c };
+    }
     if (canvas.width !== bw || canvas.height !== bh) { canvas.width = bw; canvas.height = bh; }
     const ctx = canvas.getContext('2d')!;
     ctx.setTransform(1, 0, 0, 1, 0, 0);
     ctx.clearRect(0, 0, bw, bh);
-    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
-    drawMapLayer(ctx, geometry, rc, result, view, u);
+    ctx.imageSmoothingEnabled = false;
+    ctx.drawImage(rc, 0, 0, bw, bh);
+    ctx.drawImage(oc.canvas, 0, 0);
     drawCount.current += 1;
     canvas.dataset.drawCount = String(drawCount.current);
     canvas.dataset.drawnAt = String(performance.now());
@@ -257,7 +277,7 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
           </div>
           <ul style={{ listStyle: 'none', margin: 0, padding: 0 }}>
             {entries.filter((e) => e.kind === 'frequency').map((e, i) => (
-              <li key={e.label} style={{ fontWeight: !compare && i === freqIndex ? 700 : 400 }}><LegendSwatch e={e} />{e.label}</li>
+              <li key={e.label} style={{ fontWeight: !compare && i === freqIndex ? 700 : 400 }}><LegendSwatch e={e} />{e.short ?? e.label}</li>
             ))}
           </ul>
         </div>

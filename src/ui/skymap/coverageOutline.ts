@@ -30,16 +30,14 @@ export function coveredMasks(result: PlanResult): Uint8Array[] {
   return masks;
 }
 
-function hexRgba(hex: string): number {
-  const b = new Uint8ClampedArray([parseInt(hex.slice(1, 3), 16), parseInt(hex.slice(3, 5), 16), parseInt(hex.slice(5, 7), 16), 255]);
-  return new Uint32Array(b.buffer)[0];
-}
-
 /**
- * Paints the boundary of each mask (as seen through `lookup`, a cols x rows
- * raster) into `out` (RGBA bytes) in that mask's colour, `thickness` raster
- * pixels wide, inside the covered region. A pixel is on the boundary when it is
- * covered and a neighbour within `thickness` is not (or is off the sky).
+ * Paints each mask (as seen through `lookup`, a cols x rows raster) into
+ * `out` (RGBA bytes): the covered region lightly tinted in the mask's colour
+ * (masks later in the list tint over earlier ones, so with the usual order of
+ * rising frequency the narrower strips show on top of the wider ones), and
+ * its boundary `thickness` raster pixels wide in the full colour, inside the
+ * region. A pixel is on the boundary when it is covered and a neighbour within
+ * `thickness` is on the sky but not covered.
  */
 export function paintOutlines(
   lookup: Int32Array,
@@ -49,12 +47,13 @@ export function paintOutlines(
   colours: string[],
   out: Uint8ClampedArray,
   thickness = 2,
+  tint = 0.28,
 ): void {
-  const out32 = new Uint32Array(out.buffer, out.byteOffset, cols * rows);
   const inside = new Uint8Array(cols * rows);
   for (let m = 0; m < masks.length; m++) {
     const mask = masks[m];
-    const c32 = hexRgba(colours[m]);
+    const hex = colours[m];
+    const cr = parseInt(hex.slice(1, 3), 16), cg = parseInt(hex.slice(3, 5), 16), cb = parseInt(hex.slice(5, 7), 16);
     for (let k = 0; k < inside.length; k++) {
       const p = lookup[k];
       inside[k] = p >= 0 && mask[p] ? 1 : 0;
@@ -63,29 +62,29 @@ export function paintOutlines(
       for (let i = 0; i < cols; i++) {
         const k = j * cols + i;
         if (!inside[k]) continue;
-        let edge = false;
-        for (let d = 1; d <= thickness && !edge; d++) {
-          if (i - d < 0 || i + d >= cols || j - d < 0 || j + d >= rows) { edge = true; break; }
-          if (!inside[k - d] || !inside[k + d] || !inside[k - d * cols] || !inside[k + d * cols]) edge = true;
+        const o = 4 * k;
+        if (isBoundary(lookup, cols, rows, i, j, thickness, inside)) {
+          out[o] = cr; out[o + 1] = cg; out[o + 2] = cb; out[o + 3] = 255;
+        } else {
+          out[o] += (cr - out[o]) * tint;
+          out[o + 1] += (cg - out[o + 1]) * tint;
+          out[o + 2] += (cb - out[o + 2]) * tint;
         }
-        // A covered pixel next to the rim of the sky is not a track boundary.
-        if (edge && !touchesSkyRim(lookup, cols, rows, i, j, thickness, inside)) out32[k] = c32;
       }
     }
   }
 }
 
-function touchesSkyRim(lookup: Int32Array, cols: number, rows: number, i: number, j: number, t: number, inside: Uint8Array): boolean {
-  // The boundary is a real one if some neighbour is on the sky but not covered.
+function isBoundary(lookup: Int32Array, cols: number, rows: number, i: number, j: number, t: number, inside: Uint8Array): boolean {
   for (let d = 1; d <= t; d++) {
     for (const [di, dj] of [[d, 0], [-d, 0], [0, d], [0, -d]] as const) {
       const ii = i + di, jj = j + dj;
       if (ii < 0 || jj < 0 || ii >= cols || jj >= rows) continue;
       const k = jj * cols + ii;
-      if (lookup[k] >= 0 && !inside[k]) return false;
+      if (lookup[k] >= 0 && !inside[k]) return true;
     }
   }
-  return true;
+  return false;
 }
 
 /** Fraction of the mask's pixels set (for the legend, a check against summary.sky_fraction_covered). */

@@ -91,7 +91,7 @@ export function renderRaster(result: PlanResult, view: SkyView, lookup: Int32Arr
     const grey = new Float32Array(0);
     colourise(lookup, grey, { kind: 'linear', min: 0, max: 1 }, schemeLut(DEFAULT_SCHEME), pixels);
     const masks = coveredMasks(result);
-    paintOutlines(lookup, cols, rows, masks, masks.map((_, i) => outlineColour(i)), pixels, Math.max(1, Math.round(cols / 700)));
+    paintOutlines(lookup, cols, rows, masks, masks.map((_, i) => outlineColour(i)), pixels, Math.max(2, Math.round(cols / 450)));
     return { pixels, cols, rows, scale: null, lut: null, problem: null };
   }
   if (view.diff) {
@@ -121,6 +121,29 @@ export function beamRadiusDeg(result: PlanResult, freqIndex: number): number {
   return f === undefined ? 0 : (fwhmRad(f, s.telescope.aperture_m, s.telescope.beam) * 90) / Math.PI;
 }
 
+/** The vector layer (overlays and graticule labels) at CSS size; ctx may carry a device-pixel transform. */
+export function drawOverlayLayer(ctx: Ctx2D, g: MapGeometry, result: PlanResult, view: SkyView, u: number): void {
+  const m = result.scenario.map;
+  drawOverlays(ctx, g, {
+    frame: view.frame,
+    bandDeg: m.galactic_band_deg,
+    centreRadiusDeg: m.galactic_center_radius_deg,
+    u,
+    beam: view.beamAt ? { ...view.beamAt, radiusDeg: beamRadiusDeg(result, view.freqIndex) } : null,
+  });
+  drawGraticuleLabels(ctx, g, view.frame, u);
+}
+
+/** What the vector layer depends on: when this key is unchanged, a cached layer can be reused. */
+export function overlayKey(g: MapGeometry, result: PlanResult, view: SkyView, u: number, dpr: number): string {
+  const m = result.scenario.map;
+  const b = view.beamAt;
+  return [
+    g.width, g.height, g.flipLongitude, view.frame, m.galactic_band_deg, m.galactic_center_radius_deg, u, dpr,
+    b ? `${b.ra_deg},${b.dec_deg},${b.usable},${beamRadiusDeg(result, view.freqIndex)}` : '-',
+  ].join('|');
+}
+
 /**
  * Draws the map (raster already coloured in `raster`, a drawable of the
  * raster's size) with overlays and graticule labels into ctx at CSS size
@@ -136,15 +159,7 @@ export function drawMapLayer(
 ): void {
   ctx.imageSmoothingEnabled = false;
   ctx.drawImage(raster, 0, 0, g.width, g.height);
-  const m = result.scenario.map;
-  drawOverlays(ctx, g, {
-    frame: view.frame,
-    bandDeg: m.galactic_band_deg,
-    centreRadiusDeg: m.galactic_center_radius_deg,
-    u,
-    beam: view.beamAt ? { ...view.beamAt, radiusDeg: beamRadiusDeg(result, view.freqIndex) } : null,
-  });
-  drawGraticuleLabels(ctx, g, view.frame, u);
+  drawOverlayLayer(ctx, g, result, view, u);
 }
 
 export function colourBarTitle(view: SkyView, scale: ValueScale | null): string {
@@ -178,6 +193,9 @@ export function drawColourBar(
   ctx.textAlign = 'left';
   ctx.textBaseline = 'top';
   ctx.fillText(title, x, y);
+  ctx.font = fontPx(font);
+  ctx.textAlign = 'right';
+  ctx.fillText(scale.kind === 'diverging' ? `± ${formatHours(scale.max)}` : `max ${formatHours(scale.max)}`, bx + bw, y);
   const n = lut.length / 4;
   for (let i = 0; i < n; i++) {
     ctx.fillStyle = `rgb(${lut[4 * i]},${lut[4 * i + 1]},${lut[4 * i + 2]})`;
@@ -195,7 +213,7 @@ export function drawColourBar(
     ctx.strokeRect(x, top, swatch, barH);
     ctx.fillStyle = '#1a1a1a';
     ctx.textAlign = 'center';
-    ctx.fillText('0', x + swatch / 2, top + barH + 3 * u);
+    ctx.fillText('none', x + swatch / 2, top + barH + 3 * u);
   }
   // Ticks, dropping any whose label would touch the previous one.
   let lastRight = -Infinity;
@@ -222,13 +240,15 @@ export interface LegendEntry {
   colour: string;
   label: string;
   dashed?: boolean;
+  /** Shorter text for the on-screen legend, which has a heading for the frequency lines. */
+  short?: string;
 }
 
 /** Legend lines for the overlays and, per frequency, the hours the beam spends on the galactic band. */
 export function legendEntries(result: PlanResult, view: SkyView): LegendEntry[] {
   const m = result.scenario.map;
   const out: LegendEntry[] = [
-    { kind: 'plane', colour: '#ffffff', label: `Galactic plane (b = 0°), band |b| < ${m.galactic_band_deg}° shaded` },
+    { kind: 'plane', colour: '#ffffff', label: `Galactic plane (b = 0°), band |b| < ${m.galactic_band_deg}° hatched` },
     { kind: 'centre', colour: '#ff4f4f', label: `Galactic centre (GC), dotted circle of ${m.galactic_center_radius_deg}°`, dashed: true },
     { kind: 'ecliptic', colour: '#ffb000', label: 'Ecliptic (J2000)', dashed: true },
   ];
@@ -249,6 +269,7 @@ export function legendEntries(result: PlanResult, view: SkyView): LegendEntry[] 
       kind: 'frequency',
       colour: view.compare ? outlineColour(i) : i === view.freqIndex ? '#1a1a1a' : '#777777',
       label: `${f} MHz: beam on the galactic band ${inBand}${view.compare && covered ? `, ${covered}` : ''}`,
+      short: `${f} MHz: ${inBand}${view.compare && covered ? ` on the band; ${covered}` : ''}`,
     });
   });
   return out;
@@ -271,15 +292,29 @@ export function drawLegendSymbol(ctx: Ctx2D, e: LegendEntry, x: number, y: numbe
     ctx.lineWidth = 1.5 * u;
     ctx.stroke();
   } else if (e.kind === 'plane') {
-    ctx.fillStyle = '#5a6a8a';
-    ctx.fillRect(x, y - 5 * u, s, 10 * u);
-    ctx.fillStyle = 'rgba(255,255,255,0.3)';
-    ctx.fillRect(x, y - 3.5 * u, s, 7 * u);
-    ctx.strokeStyle = '#fff';
-    ctx.lineWidth = 1.5 * u;
+    ctx.fillStyle = 'rgb(214,214,214)';
+    ctx.fillRect(x, y - 6 * u, s, 12 * u);
+    ctx.save();
+    ctx.beginPath();
+    ctx.rect(x, y - 6 * u, s, 12 * u);
+    ctx.clip();
+    ctx.beginPath();
+    for (let hx = x - 12 * u; hx < x + s; hx += 7 * u) {
+      ctx.moveTo(hx, y + 6 * u);
+      ctx.lineTo(hx + 12 * u, y - 6 * u);
+    }
+    ctx.strokeStyle = 'rgba(0,0,0,0.3)';
+    ctx.lineWidth = 2 * u;
+    ctx.stroke();
+    ctx.restore();
+    ctx.strokeStyle = 'rgba(0,0,0,0.55)';
+    ctx.lineWidth = 3.6 * u;
     ctx.beginPath();
     ctx.moveTo(x, y);
     ctx.lineTo(x + s, y);
+    ctx.stroke();
+    ctx.strokeStyle = '#fff';
+    ctx.lineWidth = 1.8 * u;
     ctx.stroke();
   } else if (e.kind === 'frequency') {
     ctx.fillStyle = e.colour;

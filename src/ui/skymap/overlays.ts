@@ -90,6 +90,24 @@ export const OVERLAY_STYLE = {
   outline: '#555555',
 };
 
+/** Diagonal hatching over the map's bounding box (the caller clips it to the band). */
+function hatch(ctx: Ctx2D, g: MapGeometry, u: number): void {
+  const gap = 7 * u;
+  const x0 = g.cx - g.rx, x1 = g.cx + g.rx, y0 = g.cy - g.ry, y1 = g.cy + g.ry;
+  const h = y1 - y0;
+  ctx.beginPath();
+  for (let x = x0 - h; x < x1; x += gap) {
+    ctx.moveTo(x, y1);
+    ctx.lineTo(x + h, y0);
+  }
+  ctx.lineWidth = 2.2 * u;
+  ctx.strokeStyle = 'rgba(0, 0, 0, 0.22)';
+  ctx.stroke();
+  ctx.lineWidth = 1 * u;
+  ctx.strokeStyle = 'rgba(255, 255, 255, 0.5)';
+  ctx.stroke();
+}
+
 function stroke(ctx: Ctx2D, draw: () => void, colour: string, width: number, dash: number[] = []): void {
   ctx.beginPath();
   draw();
@@ -163,28 +181,31 @@ export function drawOverlays(ctx: Ctx2D, g: MapGeometry, o: OverlayOptions): voi
   ctx.clip();
 
   if (o.showGalactic !== false && o.bandDeg > 0) {
+    // Hatching rather than a tint, so the exposure colours under the band stay true.
     ctx.beginPath();
     path(s.band);
-    ctx.fillStyle = st.bandFill;
-    ctx.fill();
+    ctx.save();
+    ctx.clip();
+    hatch(ctx, g, u);
+    ctx.restore();
   }
-  stroke(ctx, draw(GRATICULE), st.graticuleHalo, 1.8 * u);
+  stroke(ctx, draw(GRATICULE), st.graticuleHalo, 1.6 * u);
   stroke(ctx, draw(GRATICULE), st.graticule, 0.7 * u);
   if (o.showGalactic !== false) {
     if (o.bandDeg > 0) {
       stroke(ctx, draw(s.bandEdges), st.halo, 2.4 * u);
       stroke(ctx, draw(s.bandEdges), st.bandEdge, 1 * u, [4 * u, 3 * u]);
     }
-    stroke(ctx, draw(s.galacticPlane), st.halo, 3.2 * u);
-    stroke(ctx, draw(s.galacticPlane), st.plane, 1.5 * u);
+    stroke(ctx, draw(s.galacticPlane), st.halo, 3.6 * u);
+    stroke(ctx, draw(s.galacticPlane), st.plane, 1.8 * u);
     if (o.centreRadiusDeg > 0) {
       stroke(ctx, draw(s.centreCircle), st.halo, 2.6 * u);
       stroke(ctx, draw(s.centreCircle), st.centre, 1.2 * u, [2 * u, 2.5 * u]);
     }
   }
   if (o.showEcliptic !== false) {
-    stroke(ctx, draw(s.ecliptic), st.halo, 3.2 * u);
-    stroke(ctx, draw(s.ecliptic), st.ecliptic, 1.5 * u, [7 * u, 4 * u]);
+    stroke(ctx, draw(s.ecliptic), st.halo, 3.6 * u);
+    stroke(ctx, draw(s.ecliptic), st.ecliptic, 1.8 * u, [7 * u, 4 * u]);
   }
   if (o.beam) {
     const c = j2000ToFrameLonLat(o.frame, raDecDegToVec(o.beam.ra_deg, o.beam.dec_deg));
