@@ -14,6 +14,7 @@
 // Per sample both paths then run the same code (writeSample), so any difference
 // between them is the interpolation alone; bench/ephemeris.ts measures it.
 
+import * as AE from 'astronomy-engine';
 import type { BodyName, Scenario, Stage, Track } from './types';
 import { drain } from './types';
 import { parseUtcMs, stepMin as scenarioStepMin } from './time';
@@ -199,10 +200,13 @@ export function interpolateNodes(tab: NodeTable, tMs: number, out: Float64Array,
  * and the Sun (+ Earth) vectors from the body centre (dim 3 or 6). A stage:
  * yields progress in [0,1] every 2000 nodes.
  */
-export function* bodyNodesStage(body: BodyName, startMs: number, endMs: number): Stage<{ rot: NodeTable; vec: NodeTable }> {
+export function* bodyNodesStage(
+  body: BodyName, startMs: number, endMs: number, opts: { sun?: boolean; vecNodeDays?: number } = {},
+): Stage<{ rot: NodeTable; vec: NodeTable }> {
   const hasEarth = body !== 'earth';
+  const withSun = opts.sun ?? true; // false: Earth vector only (Sun entries left 0), for earthVisibility
   const rot = nodeGrid(startMs, endMs, ROT_NODE_DAYS, 9);
-  const vec = nodeGrid(startMs, endMs, VEC_NODE_DAYS[body], hasEarth ? 6 : 3);
+  const vec = nodeGrid(startMs, endMs, opts.vecNodeDays ?? VEC_NODE_DAYS[body], hasEarth ? 6 : 3);
   const M = new Float64Array(9);
   const total = rot.count + vec.count * 10; // a vector node costs ~10x a rotation node
   for (let k = 0; k < rot.count; k++) {
@@ -210,13 +214,22 @@ export function* bodyNodesStage(body: BodyName, startMs: number, endMs: number):
     if (k % 2000 === 1999) yield k / total;
   }
   for (let k = 0; k < vec.count; k++) {
-    const v = bodyVectorsAU(body, aeTime(vec.t0_ms + k * vec.h_ms));
+    const time = aeTime(vec.t0_ms + k * vec.h_ms);
+    const v = withSun ? bodyVectorsAU(body, time) : earthOnlyVectorAU(body, time);
     const o = vec.dim * k;
     vec.data[o] = v.sun[0]; vec.data[o + 1] = v.sun[1]; vec.data[o + 2] = v.sun[2];
     if (v.earth) { vec.data[o + 3] = v.earth[0]; vec.data[o + 4] = v.earth[1]; vec.data[o + 5] = v.earth[2]; }
     if (k % 500 === 499) yield (rot.count + 10 * k) / total;
   }
   return { rot, vec };
+}
+
+function earthOnlyVectorAU(body: BodyName, time: ReturnType<typeof aeTime>): { sun: Vec3; earth: Vec3 | null } {
+  if (body === 'moon') {
+    const m = AE.GeoMoon(time);
+    return { sun: [0, 0, 0], earth: [-m.x, -m.y, -m.z] };
+  }
+  return bodyVectorsAU(body, time);
 }
 
 /** Rebuilds M = Q * Rz(W_lin)^T from an interpolated Q. */
