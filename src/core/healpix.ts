@@ -761,6 +761,9 @@ export function queryDiscRingRanges(
   return rangeBuf.slice(0, 2 * nRanges);
 }
 
+/** Largest pixel list queryDiscRing / queryDiscNest return (1 GiB of Int32). */
+export const MAX_DISC_PIXELS = 1 << 28;
+
 /**
  * RING pixels of the disc of radius radiusRad around direction (x, y, z),
  * sorted ascending. Exact (default): pixel centres within the radius.
@@ -781,6 +784,11 @@ export function queryDiscRing(
   discRanges(nside, x, y, z, radiusRad, inclusive, fact);
   let n = 0;
   for (let r = 0; r < nRanges; r++) n += rangeBuf[2 * r + 1] - rangeBuf[2 * r];
+  if (n > MAX_DISC_PIXELS) {
+    throw new RangeError(
+      `disc holds ${n} pixels at nside ${nside}, more than ${MAX_DISC_PIXELS} listed at once; use queryDiscRingRanges`,
+    );
+  }
   const out = new Int32Array(n);
   let k = 0;
   for (let r = 0; r < nRanges; r++) {
@@ -790,7 +798,11 @@ export function queryDiscRing(
   return out;
 }
 
-/** The same set as queryDiscRing, as NESTED indices sorted ascending. */
+/**
+ * The same set as queryDiscRing, as NESTED indices sorted ascending. (For
+ * inclusive discs this is the RING definition converted; the reference
+ * implementation's NESTED inclusive search is a different overestimate.)
+ */
 export function queryDiscNest(
   nside: number,
   x: number,

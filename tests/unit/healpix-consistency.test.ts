@@ -105,6 +105,8 @@ describe('query_disc', () => {
       for (const p of got) expect(inc.has(p)).toBe(true);
       const nest = queryDiscNest(n, c[0], c[1], c[2], r);
       expect(Array.from(nest)).toEqual(Array.from(got, (p) => ring2nest(n, p)).sort((a, b) => a - b));
+      const incNest = queryDiscNest(n, c[0], c[1], c[2], r, true);
+      expect(Array.from(incNest)).toEqual(Array.from(inc, (p) => ring2nest(n, p)).sort((a, b) => a - b));
       const ranges = queryDiscRingRanges(n, c[0], c[1], c[2], r);
       let count = 0;
       for (let k = 0; k < ranges.length; k += 2) count += ranges[k + 1] - ranges[k];
@@ -121,7 +123,9 @@ describe('query_disc', () => {
     expect(vec2pixRing(32, q[0], q[1], q[2])).toBe(4480);
     expect(queryDiscRing(32, c[0], c[1], c[2], r, true)).toContain(4480);
   });
-  it('a radius of pi or more returns the whole sky', () => {
+  it('a radius of pi or more returns the whole sky; huge lists are refused with a pointer to ranges', () => {
     expect(queryDiscRing(4, 0, 1, 0, Math.PI).length).toBe(192);
+    expect(Array.from(queryDiscRingRanges(8192, 0, 1, 0, 4))).toEqual([0, 805_306_368]);
+    expect(() => queryDiscRing(8192, 0, 1, 0, 2)).toThrow(/use queryDiscRingRanges/);
   });
 });
