@@ -12,8 +12,11 @@ export function FlatSitePicker(props: {
   onPick: (lat: number, lon: number) => void;
   shading: ShadingGrid | null;
   width: number;
+  /** Body-fixed unit vectors; drawn at the points where that body is overhead. */
+  sunDir?: [number, number, number] | null;
+  earthDir?: [number, number, number] | null;
 }): JSX.Element {
-  const { body, lat_deg, lon_deg, onPick, shading, width } = props;
+  const { body, lat_deg, lon_deg, onPick, shading, width, sunDir, earthDir } = props;
   const ref = useRef<HTMLCanvasElement | null>(null);
   const w = Math.max(200, Math.floor(width));
   const h = Math.round(w / 2);
@@ -43,17 +46,41 @@ export function FlatSitePicker(props: {
     ctx.strokeStyle = 'rgba(0,0,0,0.45)';
     ctx.lineWidth = 1;
     ctx.font = '11px sans-serif';
-    ctx.fillStyle = '#111';
+    const label = (t: string, x: number, y: number) => {
+      ctx.save();
+      ctx.lineWidth = 3;
+      ctx.strokeStyle = 'rgba(255,255,255,0.9)';
+      ctx.strokeText(t, x, y);
+      ctx.fillStyle = '#111';
+      ctx.fillText(t, x, y);
+      ctx.restore();
+    };
     for (let lon = -150; lon < 180; lon += 30) {
       const x = ((lon + 180) / 360) * w;
       ctx.beginPath(); ctx.moveTo(x, 0); ctx.lineTo(x, h); ctx.stroke();
-      if (lon % 90 === 0) ctx.fillText(`${Math.abs(lon)}°${lon < 0 ? 'W' : lon > 0 ? 'E' : ''}`, x + 2, h - 4);
+      if (lon % 90 === 0) label(`${Math.abs(lon)}°${lon < 0 ? 'W' : lon > 0 ? 'E' : ''}`, x + 2, h - 4);
     }
     for (let lat = -60; lat <= 60; lat += 30) {
       const y = ((90 - lat) / 180) * h;
       ctx.beginPath(); ctx.moveTo(0, y); ctx.lineTo(w, y); ctx.stroke();
-      ctx.fillText(`${Math.abs(lat)}°${lat < 0 ? 'S' : lat > 0 ? 'N' : ''}`, 2, y - 2);
+      label(`${Math.abs(lat)}°${lat < 0 ? 'S' : lat > 0 ? 'N' : ''}`, 2, y - 2);
     }
+    const sub = (d: [number, number, number] | null | undefined, colour: string, name: string) => {
+      if (!d || !d.every(Number.isFinite)) return;
+      const la = (Math.atan2(d[2], Math.hypot(d[0], d[1])) * 180) / Math.PI;
+      const lo = (Math.atan2(d[1], d[0]) * 180) / Math.PI;
+      const x = ((lo + 180) / 360) * w, y = ((90 - la) / 180) * h;
+      ctx.beginPath();
+      ctx.arc(x, y, 4, 0, 2 * Math.PI);
+      ctx.fillStyle = colour;
+      ctx.fill();
+      ctx.strokeStyle = '#000';
+      ctx.lineWidth = 1;
+      ctx.stroke();
+      label(`${name} overhead`, x + 6, y + 4);
+    };
+    sub(sunDir, '#ffb000', 'Sun');
+    if (body === 'moon') sub(earthDir, '#3d8bff', 'Earth');
     if (Number.isFinite(lat_deg) && Number.isFinite(lon_deg)) {
       const x = ((((lon_deg + 180) % 360) + 360) % 360 / 360) * w;
       const y = ((90 - lat_deg) / 180) * h;
@@ -66,7 +93,7 @@ export function FlatSitePicker(props: {
       ctx.stroke();
     }
     c.dataset.ready = '1';
-  }, [body, lat_deg, lon_deg, shading, w, h]);
+  }, [body, lat_deg, lon_deg, shading, w, h, sunDir, earthDir]);
 
   return (
     <canvas

@@ -73,7 +73,7 @@ function labelSprite(text: string, colour: string, scale = 0.22): THREE.Sprite {
   ctx.fillText(text, 8, 28);
   const tex = new THREE.CanvasTexture(c);
   tex.colorSpace = THREE.SRGBColorSpace;
-  const sprite = new THREE.Sprite(new THREE.SpriteMaterial({ map: tex, depthTest: false, transparent: true }));
+  const sprite = new THREE.Sprite(new THREE.SpriteMaterial({ map: tex, depthTest: true, depthWrite: false, transparent: true }));
   sprite.scale.set((scale * w) / 56, scale, 1);
   sprite.renderOrder = 10;
   return sprite;
@@ -437,7 +437,7 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
           <p role="status" style={{ margin: '0 0 4px', font: '13px system-ui, sans-serif' }}>
             3D globe unavailable: {glError}. Showing a flat latitude/longitude map instead; click it to pick the site.
           </p>
-          <FlatSitePicker body={body} lat_deg={lat_deg} lon_deg={lon_deg} onPick={onPick} shading={usedShading} width={size || 320} />
+          <FlatSitePicker body={body} lat_deg={lat_deg} lon_deg={lon_deg} onPick={onPick} shading={usedShading} width={size || 320} sunDir={sunDir} earthDir={earthDir} />
         </div>
       ) : (
         <canvas

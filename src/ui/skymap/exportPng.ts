@@ -105,8 +105,10 @@ export async function renderSkyMapPng(result: PlanResult, options: SkyMapPngOpti
   probe.font = fontPx(11.5 * u);
   const captionLines = wrapText(probe, options.caption, inner);
   const entries = legendEntries(result, view);
-  const legendCols = 2;
-  const legendRows = Math.ceil(entries.length / legendCols);
+  // Left column: the overlays; right column: a heading, then one line per frequency.
+  const left = entries.filter((e) => e.kind !== 'frequency');
+  const right = entries.filter((e) => e.kind === 'frequency');
+  const legendRows = Math.max(left.length, right.length + 1);
   const mapH = Math.round(W / 2);
   const titleH = titleLines.length * 24 * u + 6 * u;
   const noteH = 18 * u;
@@ -160,19 +162,29 @@ export async function renderSkyMapPng(result: PlanResult, options: SkyMapPngOpti
   y += barH;
 
   // Legend in two columns.
-  const colW = inner / legendCols;
-  ctx.font = fontPx(12 * u);
-  entries.forEach((e, i) => {
-    const col = Math.floor(i / legendRows), row = i % legendRows;
-    const x = margin + col * colW;
-    const cy = y + row * 19 * u + 9 * u;
+  const colW = inner / 2;
+  const rowH = 19 * u;
+  const line = (e: (typeof entries)[number], x: number, row: number, bold: boolean) => {
+    const cy = y + row * rowH + 9 * u;
     drawLegendSymbol(ctx, e, x, cy, 26 * u, u);
     ctx.fillStyle = '#1a1a1a';
     ctx.textAlign = 'left';
     ctx.textBaseline = 'middle';
-    ctx.font = fontPx(12 * u, e.kind === 'frequency' && !view.compare && e.colour === '#1a1a1a' ? 'bold' : '');
-    ctx.fillText(e.label, x + 34 * u, cy, colW - 40 * u);
-  });
+    ctx.font = fontPx(12 * u, bold ? 'bold' : '');
+    ctx.fillText(e.kind === 'frequency' ? (e.short ?? e.label) : e.label, x + 34 * u, cy, colW - 40 * u);
+  };
+  left.forEach((e, i) => line(e, margin, i, false));
+  ctx.font = fontPx(12 * u, 'bold');
+  ctx.fillStyle = '#1a1a1a';
+  ctx.textAlign = 'left';
+  ctx.textBaseline = 'middle';
+  ctx.fillText(
+    view.compare ? 'Half-power outlines (within FWHM/2 of the usable track):' : 'Usable hours, beam on the galactic band (|b| < band + FWHM/2):',
+    margin + colW,
+    y + 9 * u,
+    colW - 6 * u,
+  );
+  right.forEach((e, i) => line(e, margin + colW, i + 1, !view.compare && i === view.freqIndex));
   y += legendH;
 
   ctx.font = fontPx(11.5 * u);
