@@ -558,13 +558,43 @@ export function pixelCentersRing(nside: number): Float64Array {
   }
   let t = centresCache.get(nside);
   if (t) return t;
-  const npix = 12 * nside * nside;
-  t = new Float64Array(3 * npix);
-  for (let p = 0, o = 0; p < npix; p++, o += 3) {
-    pix2locRing(nside, p);
-    writeVec(t, o);
-  }
+  t = buildCentres(nside);
   centresCache.set(nside, t);
+  return t;
+}
+
+/**
+ * Ring by ring, using the symmetries of each ring (four quadrants) and of the
+ * two hemispheres, so that only 1/8 of the cosines and sines are evaluated.
+ * Each first-quadrant pixel is located exactly as pix2locRing does it, so the
+ * table agrees with pix2vecRingInto to a rounding error (< 3e-16).
+ */
+function buildCentres(nside: number): Float64Array {
+  const npix = 12 * nside * nside;
+  const t = new Float64Array(3 * npix);
+  const put = (base: number, q: number, c: number, sn: number, z: number): void => {
+    let o = 3 * base;
+    t[o] = c; t[o + 1] = sn; t[o + 2] = z;
+    o += 3 * q;
+    t[o] = -sn; t[o + 1] = c; t[o + 2] = z;
+    o += 3 * q;
+    t[o] = -c; t[o + 1] = -sn; t[o + 2] = z;
+    o += 3 * q;
+    t[o] = sn; t[o + 1] = -c; t[o + 2] = z;
+  };
+  for (let ring = 1; ring <= 2 * nside; ring++) {
+    ringInfo(nside, 4 * nside - ring);
+    const southStart = ring < 2 * nside ? riStart : -1;
+    ringInfo(nside, ring);
+    const start = riStart, q = riCount >> 2;
+    for (let j = 0; j < q; j++) {
+      pix2locRing(nside, start + j);
+      const st = lhave ? lsth : Math.sqrt((1 - lz) * (1 + lz));
+      const c = st * Math.cos(lphi), sn = st * Math.sin(lphi);
+      put(start + j, q, c, sn, lz);
+      if (southStart >= 0) put(southStart + j, q, c, sn, -lz);
+    }
+  }
   return t;
 }
 

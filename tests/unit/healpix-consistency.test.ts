@@ -66,14 +66,20 @@ describe('healpix round trips', () => {
       prev = z;
     }
   });
-  it('pixelCentersRing matches pix2vecRingInto and is cached', () => {
-    const t = pixelCentersRing(8);
-    expect(pixelCentersRing(8)).toBe(t);
-    const out = new Float64Array(3);
-    for (let p = 0; p < 768; p++) {
-      pix2vecRingInto(8, p, out, 0);
-      expect([t[3 * p], t[3 * p + 1], t[3 * p + 2]]).toEqual([out[0], out[1], out[2]]);
+  it('pixelCentersRing matches pix2vecRingInto to rounding and is cached', () => {
+    for (const n of [1, 2, 4, 8, 64, 256]) {
+      const t = pixelCentersRing(n);
+      expect(pixelCentersRing(n)).toBe(t);
+      expect(t.length).toBe(3 * nside2npix(n));
+      const out = new Float64Array(3);
+      let e = 0;
+      for (let p = 0; p < nside2npix(n); p++) {
+        pix2vecRingInto(n, p, out, 0);
+        for (let k = 0; k < 3; k++) e = Math.max(e, Math.abs(t[3 * p + k] - out[k]));
+      }
+      expect(e).toBeLessThan(2e-15);
     }
+    expect(() => pixelCentersRing(4096)).toThrow(/at most 2048/);
   });
 });
 
