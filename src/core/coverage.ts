@@ -20,15 +20,13 @@ import type { Stage, Track } from './types';
 import { drain } from './types';
 import type { BeamModel } from './types';
 import { fwhmRad } from './beam';
-import { nside2npix, nside2resolRad, pix2vecNest, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
+import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
 
 export const MAX_HIT_NSIDE = 8192;
 /** Hit pixels for the shared fine map: resolution at most FWHM_min / this. */
 export const FINE_HIT_PER_FWHM = 10;
 /** Hit pixels used for a beam's exposure: resolution at most FWHM / this (with centroids the maps stay within ~0.2% of the exact ones). */
 export const EXPOSURE_HIT_PER_FWHM = 6;
-/** Hit pixels used for the covered-sky test: resolution at most (FWHM/2) / this. */
-export const COVER_HIT_PER_RADIUS = 8;
 
 /** What the exposure needs of a beam: its width, where it drops below 1e-3, and its power. */
 export interface BeamProfile {
@@ -256,6 +254,48 @@ function checkBeam(beam: BeamProfile): void {
 }
 
 /**
+ * Groups the hit pixels under parents at `groupNside` (children of one parent
+ * are consecutive in NESTED order): returns, per group, the index of its first
+ * hit pixel (plus a final end index) and the parent's centre. One disc query
+ * around a parent, widened by the parent's radius, serves all its children.
+ */
+function groupHits(h: HitMap, groupNside: number): { starts: Int32Array; centres: Float64Array } {
+  const div = (h.nside / groupNside) ** 2;
+  const n = h.pix.length;
+  const starts: number[] = [];
+  let last = -1;
+  for (let k = 0; k < n; k++) {
+    const p = Math.floor(h.pix[k] / div);
+    if (p !== last) { starts.push(k); last = p; }
+  }
+  starts.push(n);
+  const centres = new Float64Array(3 * (starts.length - 1));
+  for (let g = 0; g + 1 < starts.length; g++) {
+    const c = pix2vecNest(groupNside, Math.floor(h.pix[starts[g]] / div));
+    centres[3 * g] = c[0]; centres[3 * g + 1] = c[1]; centres[3 * g + 2] = c[2];
+  }
+  return { starts: Int32Array.from(starts), centres };
+}
+
+/** The coarsest nside (not coarser than needed, not finer than the hit map) whose pixels fit within `maxRadRad`. */
+function groupNsideFor(hitNside: number, maxRadRad: number): number {
+  let g = 1;
+  while (g < hitNside && maxPixradRad(g) > maxRadRad) g *= 2;
+  return g;
+}
+
+/** Centroid directions of all hit pixels, x, y, z interleaved. */
+function centroids(h: HitMap): Float64Array {
+  const out = new Float64Array(3 * h.pix.length);
+  const c = new Float64Array(3);
+  for (let k = 0; k < h.pix.length; k++) {
+    centroid(h, k, c);
+    out[3 * k] = c[0]; out[3 * k + 1] = c[1]; out[3 * k + 2] = c[2];
+  }
+  return out;
+}
+
+/**
  * Exposure in hours per RING pixel at `nside`: each hit pixel (degraded to a
  * resolution of FWHM/6 or finer) spreads its hours over the output pixels whose
  * centres lie within the beam's cutoff of its centroid, weighted by B.
@@ -268,29 +308,36 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
   const centres = pixelCentersRing(nside);
   const { uMax, scale, values } = beamTable(beam);
   const acc = new Float64Array(nside2npix(nside));
-  const c = new Float64Array(3);
-  const n = h.pix.length;
+  const cen = centroids(h);
+  const groupNside = groupNsideFor(h.nside, beam.cutoffRad / 3);
+  const { starts, centres: gc } = groupHits(h, groupNside);
+  const widen = maxPixradRad(groupNside);
+  const radius = Math.min(Math.PI, beam.cutoffRad + widen);
+  const groups = starts.length - 1;
   let work = 0;
-  for (let k = 0; k < n; k++) {
-    centroid(h, k, c);
-    const cx = c[0], cy = c[1], cz = c[2];
-    const w = h.hours[k];
-    const ranges = queryDiscRingRanges(nside, cx, cy, cz, beam.cutoffRad, false);
+  for (let g = 0; g < groups; g++) {
+    const k0 = starts[g], k1 = starts[g + 1];
+    const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], radius, false);
     for (let r = 0; r < ranges.length; r += 2) {
       const end = ranges[r + 1];
       for (let q = ranges[r]; q < end; q++) {
-        const u = 1 - (cx * centres[3 * q] + cy * centres[3 * q + 1] + cz * centres[3 * q + 2]);
-        if (u >= uMax) continue;
-        const f = (u > 0 ? u : 0) * scale;
-        const i0 = f | 0;
-        acc[q] += w * (values[i0] + (values[i0 + 1] - values[i0]) * (f - i0));
+        const px = centres[3 * q], py = centres[3 * q + 1], pz = centres[3 * q + 2];
+        let sum = 0;
+        for (let k = k0; k < k1; k++) {
+          const u = 1 - (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz);
+          if (u >= uMax) continue;
+          const f = (u > 0 ? u : 0) * scale;
+          const i0 = f | 0;
+          sum += h.hours[k] * (values[i0] + (values[i0 + 1] - values[i0]) * (f - i0));
+        }
+        acc[q] += sum;
       }
-      work += end - ranges[r];
+      work += (end - ranges[r]) * (k1 - k0);
     }
     work += 20;
-    if (work >= 50_000) {
+    if (work >= 100_000) {
       work = 0;
-      yield k / n;
+      yield g / groups;
     }
   }
   return Float32Array.from(acc);
@@ -298,29 +345,43 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
 
 /**
  * Pixels (RING, at `nside`) whose centre came within radiusRad of the usable
- * path: a hit pixel at about radius/8 resolution marks the output pixels
- * within radiusRad of its centroid. 1 = covered.
+ * path: an output pixel is covered when the centroid of some fine hit pixel
+ * lies within radiusRad of its centre. 1 = covered.
  */
 export function* coveredStage(hit: HitMap, radiusRad: number, nside: number, opts: { hitPerRadius?: number } = {}): Stage<Uint8Array> {
   checkOutputNside(nside);
   if (!(radiusRad > 0)) throw new RangeError(`coverage radius must be > 0, got ${radiusRad}`);
-  const level = Math.min(hit.nside, nsideForResolution(radiusRad / (opts.hitPerRadius ?? COVER_HIT_PER_RADIUS)));
+  // the finest hit map by default: its centroids follow the path most closely
+  const level = opts.hitPerRadius ? Math.min(hit.nside, nsideForResolution(radiusRad / opts.hitPerRadius)) : hit.nside;
   const h = degradeHitMap(hit, level);
+  const centres = pixelCentersRing(nside);
   const mask = new Uint8Array(nside2npix(nside));
-  const c = new Float64Array(3);
-  const n = h.pix.length;
+  const cen = centroids(h);
+  // groups about as wide as the radius or an output pixel, whichever is larger
+  const groupNside = groupNsideFor(h.nside, Math.max(radiusRad, nside2resolRad(nside)) / 2);
+  const { starts, centres: gc } = groupHits(h, groupNside);
+  const radius = Math.min(Math.PI, radiusRad + maxPixradRad(groupNside));
+  const cosR = Math.cos(radiusRad);
+  const groups = starts.length - 1;
   let work = 0;
-  for (let k = 0; k < n; k++) {
-    centroid(h, k, c);
-    const ranges = queryDiscRingRanges(nside, c[0], c[1], c[2], radiusRad, false);
+  for (let g = 0; g < groups; g++) {
+    const k0 = starts[g], k1 = starts[g + 1];
+    const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], radius, false);
     for (let r = 0; r < ranges.length; r += 2) {
-      mask.fill(1, ranges[r], ranges[r + 1]);
-      work += ranges[r + 1] - ranges[r];
+      const end = ranges[r + 1];
+      for (let q = ranges[r]; q < end; q++) {
+        if (mask[q]) continue;
+        const px = centres[3 * q], py = centres[3 * q + 1], pz = centres[3 * q + 2];
+        for (let k = k0; k < k1; k++) {
+          if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz >= cosR) { mask[q] = 1; break; }
+        }
+      }
+      work += (end - ranges[r]) * (k1 - k0);
     }
     work += 20;
-    if (work >= 50_000) {
+    if (work >= 100_000) {
       work = 0;
-      yield k / n;
+      yield g / groups;
     }
   }
   return mask;
