@@ -19,7 +19,7 @@
 import type { Stage, Track } from './types';
 import { drain } from './types';
 import type { BeamModel } from './types';
-import { fwhmRad } from './beam';
+import { makeBeam } from './beam';
 import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
 
 export const MAX_HIT_NSIDE = 8192;
@@ -471,11 +471,7 @@ export function relativeL1(a: ArrayLike<number>, b: ArrayLike<number>): number {
   return den > 0 ? num / den : num;
 }
 
-/** The beam of one frequency as the exposure needs it (src/core/beam.ts holds the patterns). */
+/** The beam of one frequency as the exposure needs it (patterns, cutoff and table live in beam.ts). */
 export function beamProfileFor(freqMHz: number, apertureM: number, beam: { model: BeamModel; fwhm_factor: number }): BeamProfile {
-  // Interim until beam.ts provides makeBeam: the Gaussian written out here.
-  if (beam.model !== 'gaussian') throw new RangeError(`telescope.beam.model ${JSON.stringify(beam.model)} is not available in this build yet; use "gaussian"`);
-  const f = fwhmRad(freqMHz, apertureM, beam);
-  const a = (4 * Math.LN2) / (f * f);
-  return { fwhmRad: f, cutoffRad: f * Math.sqrt(Math.log(1000) / (4 * Math.LN2)), powerAt: (th) => Math.exp(-a * th * th) };
+  return makeBeam(freqMHz, apertureM, beam);
 }

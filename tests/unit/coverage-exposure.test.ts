@@ -7,9 +7,11 @@ import {
   hitNsideFor,
   naiveExposure,
   relativeL1,
+  beamProfileFor,
 } from '../../src/core/coverage';
 import { nside2npix, nside2pixareaSr, pixelCentersRing } from '../../src/core/healpix';
 import { blockMask, gaussianProfile, smallCircleTrack, usableHours } from './coverage-fixtures';
+import { makeBeam } from '../../src/core/beam';
 
 const DEG = Math.PI / 180;
 
@@ -150,6 +152,30 @@ describe('covered sky', () => {
       const ra = ((Math.atan2(c[3 * q + 1], c[3 * q]) / DEG) + 360) % 360;
       // within 1 deg of the usable half (ra 0..180 plus the last interval's path)
       expect(ra < 183.5 || ra > 358).toBe(true);
+    }
+  });
+});
+
+describe('exposure with the project beams (beam.ts)', () => {
+  const track = smallCircleTrack({ decDeg: 12, rateDegPerH: 0.55, stepMin: 20, spanH: 24 * 8, wobbleDeg: 1, wobblePeriodH: 24 * 7 });
+  const usable = blockMask(track.n, 30, 20);
+  it('Gaussian and Airy: sum(exposure) x pixel area = usable hours x the kept (truncated at B = 1e-3) solid angle within 1%', () => {
+    for (const model of ['gaussian', 'airy'] as const) {
+      const b = makeBeam(20, 300, { model, fwhm_factor: 1.15 });
+      const hit = hitMap(track, usable, { nside: hitNsideFor(b.fwhmRad) });
+      const map = exposureMap(hit, beamProfileFor(20, 300, { model, fwhm_factor: 1.15 }), 128);
+      const lhs = sum(map) * nside2pixareaSr(128);
+      expect(Math.abs(lhs / (usableHours(track, usable) * b.solidAngleSr) - 1)).toBeLessThan(0.01);
+      if (model === 'airy') {
+        // uniform circular aperture: full beam solid angle = lambda^2 / (pi D^2 / 4) (antenna theory texts);
+        // the exposure keeps the main lobe and the first sidelobes, a few per cent less
+        const lam = 299.792458 / 20;
+        const full = lam * lam / (Math.PI * 300 * 300 / 4);
+        expect(lhs / usableHours(track, usable) / full).toBeGreaterThan(0.9);
+        expect(lhs / usableHours(track, usable) / full).toBeLessThan(1);
+      }
+      const naive = naiveExposure(track, usable, b, 128, { subSteps: 3 });
+      expect(relativeL1(map, naive)).toBeLessThan(0.005);
     }
   });
 });
