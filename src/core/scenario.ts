@@ -501,6 +501,9 @@ function jsonErrorText(e: unknown, text: string): string {
     const col = pos - before.lastIndexOf('\n');
     msg = msg.replace(/ in JSON at position \d+.*$/, '') + ` at line ${line}, column ${col}`;
   }
+  // The engine's message may quote the offending character raw: show control characters escaped.
+  // eslint-disable-next-line no-control-regex
+  msg = msg.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
   return msg.slice(0, 160);
 }
 
