@@ -69,11 +69,12 @@ export function estimateRun(s: Scenario): RunEstimate {
     problems.push({ field: 'span', message: 'span: the number of samples cannot be worked out (check span.start, span.end and span.step_min)' });
   } else if (samples > RUN_LIMITS.max_samples) {
     const needStep = spanMin / RUN_LIMITS.max_samples;
-    const how = s.span.step_min === null ? `an automatic step of ${sig(step)} minutes, set by the narrowest beam` : `a step of ${sig(step)} minutes`;
+    const mins = `${sig(step)} minute${sig(step) === '1' ? '' : 's'}`;
+    const how = s.span.step_min === null ? `an automatic step of ${mins}, set by the narrowest beam` : `a step of ${mins}`;
     problems.push({
       field: 'span.step_min',
       message:
-        `the run needs ${grouped(samples)} samples: ${sig(spanMin / 1440)} days at ${how}; the limit is ${grouped(RUN_LIMITS.max_samples)}: ` +
+        `the run needs ${grouped(samples)} samples: ${spanMin >= 14400 ? grouped(spanMin / 1440) : sig(spanMin / 1440)} days at ${how}; the limit is ${grouped(RUN_LIMITS.max_samples)}: ` +
         `set span.step_min to at least ${sig(Math.ceil(needStep * 1000) / 1000, 4)} minutes, or shorten the span (span.end)`,
     });
   }

@@ -605,7 +605,11 @@ export function decodeScenarioParam(str: string): ParseResult {
   } catch {
     return { ok: false, issues: [{ field, message: `${field}: the link's scenario is damaged (not base64url text); copy the whole link again` }] };
   }
-  return parseScenarioBytes(bytes, field);
+  const r = parseScenarioBytes(bytes, field);
+  if (!r.ok && r.issues.length === 1 && r.issues[0].field === field && /not valid JSON|not UTF-8|is empty/.test(r.issues[0].message)) {
+    return { ok: false, issues: [{ field, message: `${field}: the link's scenario is damaged or cut short; copy the whole link again` }] };
+  }
+  return r;
 }
 
 // ---------------------------------------------------------------- form helper
