@@ -309,7 +309,9 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
   const { uMax, scale, values } = beamTable(beam);
   const acc = new Float64Array(nside2npix(nside));
   const cen = centroids(h);
-  const groupNside = groupNsideFor(h.nside, beam.cutoffRad / 3);
+  // small groups for wide beams (their work per hit dwarfs a disc query), about
+  // half an output pixel for narrow ones (where the queries would dominate)
+  const groupNside = groupNsideFor(h.nside, Math.max(beam.cutoffRad / 2, nside2resolRad(nside) / 2));
   const { starts, centres: gc } = groupHits(h, groupNside);
   const widen = maxPixradRad(groupNside);
   const radius = Math.min(Math.PI, beam.cutoffRad + widen);
