@@ -17,21 +17,26 @@ export const RUN_LIMITS = {
 // Memory model (bytes). The track holds 13 Float64 arrays per sample
 // (weight, zenith x/y/z, ra, dec, l, b, ecliptic latitude, Sun and Earth
 // elevation/azimuth) plus the usable flags; each frequency's exposure map is
-// Float32 per pixel; the coverage stage's working grids are taken as four
-// Float64 maps at the output nside (a stated allowance, checked against the
-// engine's measured peak in tests/unit/limits-estimate.test.ts).
+// Float32 per pixel; the coverage stage's working grids are allowed four
+// Float64 maps at the output nside. Measured peaks (heap + array buffers,
+// runPlan in Node, 2026-12-01) stayed below this model: 27 MB vs 44 MB
+// estimated (demo), 131 vs 142 (lunar nodal cycle at 10 min, nside 128, 4
+// frequencies), 235 vs 279 (Earth, 1 year, nside 256, 3 frequencies), 75 vs
+// 186 (demo at nside 512). tests/unit/limits-estimate.test.ts checks that the
+// estimate covers the arrays a real run returns.
 const TRACK_BYTES_PER_SAMPLE = 13 * 8 + 1;
 const MAP_BYTES_PER_PIXEL_PER_FREQ = 4;
 const WORK_BYTES_PER_PIXEL = 4 * 8;
 const BASE_MB = 30;
 
-// Time model (seconds): per sample for the ephemeris and binning, per pixel
-// and frequency for the beam convolution and statistics. Measured with the
-// engine on this project's 2-core development machine (see the test above);
-// a planning figure, not a promise.
-export const TIME_PER_SAMPLE_S = 1.5e-6;
-export const TIME_PER_PIXEL_FREQ_S = 2.5e-7;
-const TIME_BASE_S = 0.2;
+// Time model (seconds): a fixed start-up, a cost per sample (ephemeris and
+// binning) and per pixel and frequency (beam convolution and statistics),
+// fitted to runPlan on this project's shared 2-core development machine
+// (the four runs above took 1.65, 4.54, 3.21 and 7.11 s; the model gives
+// 1.4, 3.3, 6.2 and 6.8 s). A planning figure, within about a factor of two.
+export const TIME_PER_SAMPLE_S = 2e-6;
+export const TIME_PER_PIXEL_FREQ_S = 4.5e-7;
+const TIME_BASE_S = 1;
 
 export interface RunEstimate {
   samples: number;

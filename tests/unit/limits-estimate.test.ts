@@ -64,3 +64,17 @@ describe('estimateRun', () => {
     expect(describeEstimate(estimateRun(withSpan(DEMO_SCENARIO, '2031-03-02T00:00:00Z', 10)))).toMatch(/^144 samples at 10 min, about \d+ MB, about [\d.]+ s$/);
   });
 });
+
+describe('estimateRun against a real run', () => {
+  it('covers at least the typed arrays the engine returns (track, flags, maps)', async () => {
+    const { runPlan } = await import('../../src/engine/runPlan');
+    const s: Scenario = { ...withSpan(DEMO_SCENARIO, '2031-03-11T00:00:00Z', 5), map: { ...DEMO_SCENARIO.map, nside: 64 } };
+    const r = await runPlan(s);
+    const t = r.track;
+    const arrays = [t.weight_h, t.zx, t.zy, t.zz, t.ra_deg, t.dec_deg, t.l_deg, t.b_deg, t.ecl_lat_deg, t.sun_elev_deg, t.sun_az_deg, t.earth_elev_deg, t.earth_az_deg, r.usable, ...r.maps];
+    const bytes = arrays.reduce((a, x) => a + (x ? x.byteLength : 0), 0);
+    const e = estimateRun(s);
+    expect(r.summary.samples).toBe(e.samples);
+    expect(e.memory_mb * 1e6).toBeGreaterThan(bytes);
+  });
+});
