@@ -94,6 +94,14 @@ function elevAz(vx: number, vy: number, vz: number, geo: SiteGeometry, out: Floa
   out[k + 1] = az >= 360 ? az - 360 : az;
 }
 
+/** Elevation alone, computed exactly as in elevAz. */
+function elevOnly(vx: number, vy: number, vz: number, geo: SiteGeometry): number {
+  const u = geo.up;
+  const r = Math.sqrt(vx * vx + vy * vy + vz * vz);
+  const up = (vx * u[0] + vy * u[1] + vz * u[2]) / r;
+  return Math.asin(up > 1 ? 1 : up < -1 ? -1 : up) * RAD2DEG;
+}
+
 /**
  * Everything one sample needs from the rotation M (row-major, body -> J2000,
  * orthonormal up to interpolation error) and the Sun/Earth positions from the
@@ -101,7 +109,7 @@ function elevAz(vx: number, vy: number, vz: number, geo: SiteGeometry, out: Floa
  */
 function sampleKernel(
   M: Float64Array, sx: number, sy: number, sz: number, ex: number, ey: number, ez: number, hasEarth: boolean,
-  geo: SiteGeometry, o: Float64Array,
+  geo: SiteGeometry, o: Float64Array, lean = false,
 ): void {
   const u = geo.up;
   let zx = M[0] * u[0] + M[1] * u[1] + M[2] * u[2];
@@ -110,6 +118,19 @@ function sampleKernel(
   const zn = 1 / Math.sqrt(zx * zx + zy * zy + zz * zz);
   zx *= zn; zy *= zn; zz *= zn;
   o[0] = zx; o[1] = zy; o[2] = zz;
+  if (lean) {
+    // the survey's subset: zenith, galactic latitude, Sun/Earth elevation (same arithmetic as below)
+    const gz = G[6] * zx + G[7] * zy + G[8] * zz;
+    o[6] = Math.asin(gz > 1 ? 1 : gz < -1 ? -1 : gz) * RAD2DEG;
+    const p = geo.pos_km;
+    sx *= KM_PER_AU; sy *= KM_PER_AU; sz *= KM_PER_AU;
+    o[8] = elevOnly(M[0] * sx + M[3] * sy + M[6] * sz - p[0], M[1] * sx + M[4] * sy + M[7] * sz - p[1], M[2] * sx + M[5] * sy + M[8] * sz - p[2], geo);
+    if (hasEarth) {
+      ex *= KM_PER_AU; ey *= KM_PER_AU; ez *= KM_PER_AU;
+      o[10] = elevOnly(M[0] * ex + M[3] * ey + M[6] * ez - p[0], M[1] * ex + M[4] * ey + M[7] * ez - p[1], M[2] * ex + M[5] * ey + M[8] * ez - p[2], geo);
+    }
+    return;
+  }
   let ra = Math.atan2(zy, zx) * RAD2DEG;
   if (ra < 0) ra += 360;
   o[3] = ra >= 360 ? ra - 360 : ra;
@@ -265,6 +286,61 @@ export class InterpolatedBody {
   }
 }
 
+/** The fast path pays off once the samples outnumber the (costlier) vector nodes. */
+export function fastPathPays(body: BodyName, grid: SampleGrid): boolean {
+  const spanDays = (grid.end_ms - grid.t0_ms) / DAY_MS;
+  return grid.n >= 1.5 * (spanDays / VEC_NODE_DAYS[body] + 4);
+}
+
+/**
+ * Per-sample rotation (9 entries) and Sun/Earth vectors (6) interpolated once on a
+ * sample grid, to be shared by every site that uses the same grid (the survey):
+ * a site's track is then one pass of the per-sample kernel, identical to the
+ * fast trackStage's output for that site.
+ */
+export interface SharedSamples { body: BodyName; grid: SampleGrid; M: Float64Array; vec: Float64Array }
+
+export function* sharedSamplesStage(ib: InterpolatedBody, grid: SampleGrid): Stage<SharedSamples> {
+  const n = grid.n, stepMs = grid.step_min * 60_000;
+  const M = new Float64Array(9 * n), vec = new Float64Array(6 * n);
+  const m = new Float64Array(9), v = new Float64Array(6);
+  for (let i = 0; i < n; i++) {
+    const t = grid.t0_ms + i * stepMs;
+    ib.rotation(t, m);
+    ib.vectors(t, v);
+    M.set(m, 9 * i);
+    vec.set(v, 6 * i);
+    if (i % FAST_YIELD === FAST_YIELD - 1) yield i / n;
+  }
+  return { body: ib.body, grid, M, vec };
+}
+
+/**
+ * The track of one site from shared samples (same kernel as trackStage, so the
+ * same numbers). opts.lean fills only zx/zy/zz, b_deg and the Sun/Earth
+ * elevations (the other columns stay 0; azimuths are not needed without a
+ * horizon mask); opts.into reuses a track's arrays from an earlier site on the
+ * same grid.
+ */
+export function trackFromShared(sh: SharedSamples, latDeg: number, lonDeg: number, opts: { lean?: boolean; into?: Track } = {}): Track {
+  const body = sh.body;
+  const geo = siteGeometry(body, latDeg, lonDeg);
+  const tr = opts.into && opts.into.n === sh.grid.n && opts.into.body === body ? opts.into : allocTrack(body, sh.grid);
+  const lean = !!opts.lean;
+  const o = new Float64Array(12);
+  const hasEarth = body !== 'earth';
+  const M = sh.M, v = sh.vec;
+  for (let i = 0; i < sh.grid.n; i++) {
+    const m = M.subarray(9 * i, 9 * i + 9), k = 6 * i;
+    sampleKernel(m, v[k], v[k + 1], v[k + 2], v[k + 3], v[k + 4], v[k + 5], hasEarth, geo, o, lean);
+    if (lean) {
+      tr.zx[i] = o[0]; tr.zy[i] = o[1]; tr.zz[i] = o[2]; tr.b_deg[i] = o[6]; tr.sun_elev_deg[i] = o[8];
+      if (tr.earth_elev_deg) tr.earth_elev_deg[i] = o[10];
+    } else storeSample(tr, i, o);
+  }
+  return tr;
+}
+
 // ---------------------------------------------------------------------------
 // The track stage
 
@@ -289,8 +365,7 @@ export function* trackStage(s: Scenario, opts: TrackOptions = {}): Stage<Track> 
   const spanDays = (grid.end_ms - grid.t0_ms) / DAY_MS;
   const nodeCost = 10 * (spanDays / VEC_NODE_DAYS[body] + 4) + spanDays / ROT_NODE_DAYS;
   let mode: EphemerisMode = opts.mode ?? 'fast';
-  // Fast pays off once the samples outnumber the (costlier) vector nodes.
-  if (mode === 'fast' && grid.n < 1.5 * (spanDays / VEC_NODE_DAYS[body] + 4)) mode = 'exact';
+  if (mode === 'fast' && !fastPathPays(body, grid)) mode = 'exact';
 
   if (mode === 'exact') {
     for (let i = 0; i < grid.n; i++) {
