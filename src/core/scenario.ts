@@ -22,6 +22,9 @@ export const SCENARIO_LIMITS = {
   frequencies_count: [1, 16],
   frequency_mhz: [0.1, 100_000],
   fwhm_factor: [0.5, 3],
+  /** Optional sensitivity inputs (radiometer equation): channel bandwidth and receiver temperature. */
+  bandwidth_mhz: [0.000001, 100_000],
+  receiver_temp_k: [0, 1_000_000],
   /** The beam models are for beams narrower than this (FWHM at the lowest frequency). */
   fwhm_max_deg: 90,
   elev_deg: [-90, 90],
@@ -279,7 +282,7 @@ function horizonMask(iss: Issues, field: string, v: unknown): [number, number][]
 const TOP_KEYS = ['format', 'name', 'site', 'span', 'telescope', 'constraints', 'map'] as const;
 const SITE_KEYS = ['body', 'lat_deg', 'lon_deg'] as const;
 const SPAN_KEYS = ['start', 'end', 'step_min'] as const;
-const TELESCOPE_KEYS = ['aperture_m', 'frequencies_mhz', 'beam'] as const;
+const TELESCOPE_KEYS = ['aperture_m', 'frequencies_mhz', 'beam', 'bandwidth_mhz', 'receiver_temp_k'] as const;
 const BEAM_KEYS = ['model', 'fwhm_factor'] as const;
 const CONSTRAINT_KEYS = ['sun_max_elev_deg', 'earth_max_elev_deg', 'horizon_mask'] as const;
 const MAP_KEYS = ['nside', 'galactic_band_deg', 'galactic_center_radius_deg'] as const;
@@ -348,6 +351,8 @@ function parseUnsafe(input: unknown): ParseResult {
   let freqs: number[] | undefined;
   let model: BeamModel | undefined = SCENARIO_DEFAULTS.beam.model;
   let factor: number | undefined = SCENARIO_DEFAULTS.beam.fwhm_factor;
+  let bandwidth: number | undefined;
+  let receiverK: number | undefined;
   const tel = has(top, 'telescope')
     ? readObject(iss, 'telescope', top.telescope, TELESCOPE_KEYS)
     : (iss.add('telescope', 'telescope is required (an object with aperture_m, frequencies_mhz and optionally beam)'), null);
@@ -363,6 +368,9 @@ function parseUnsafe(input: unknown): ParseResult {
     if (aperture !== undefined && freqs !== undefined && model !== undefined && factor !== undefined) {
       beamWidthCheck(iss, aperture, freqs, { model, fwhm_factor: factor });
     }
+    // optional; kept only when given (the engine states the defaults it used)
+    if (has(tel, 'bandwidth_mhz')) bandwidth = num(iss, 'telescope.bandwidth_mhz', tel.bandwidth_mhz, SCENARIO_LIMITS.bandwidth_mhz);
+    if (has(tel, 'receiver_temp_k')) receiverK = num(iss, 'telescope.receiver_temp_k', tel.receiver_temp_k, SCENARIO_LIMITS.receiver_temp_k);
   }
 
   // constraints
@@ -412,6 +420,8 @@ function parseUnsafe(input: unknown): ParseResult {
     constraints: { sun_max_elev_deg: sunMax!, earth_max_elev_deg: earthMax!, horizon_mask: mask! },
     map: { nside: nside!, galactic_band_deg: band!, galactic_center_radius_deg: radius! },
   };
+  if (bandwidth !== undefined) s.telescope.bandwidth_mhz = bandwidth;
+  if (receiverK !== undefined) s.telescope.receiver_temp_k = receiverK;
   return { ok: true, scenario: s };
 }
 
@@ -556,6 +566,8 @@ export function canonical(s: Scenario): Scenario {
       aperture_m: s.telescope.aperture_m,
       frequencies_mhz: [...s.telescope.frequencies_mhz],
       beam: { model: s.telescope.beam.model, fwhm_factor: s.telescope.beam.fwhm_factor },
+      ...(s.telescope.bandwidth_mhz !== undefined ? { bandwidth_mhz: s.telescope.bandwidth_mhz } : {}),
+      ...(s.telescope.receiver_temp_k !== undefined ? { receiver_temp_k: s.telescope.receiver_temp_k } : {}),
     },
     constraints: {
       sun_max_elev_deg: s.constraints.sun_max_elev_deg,

@@ -113,3 +113,51 @@ export function zenithLatitudeHistogram(track: Track, usable: Uint8Array, binDeg
   }
   return { edges, values };
 }
+
+// ---------------------------------------------------------------- sensitivity
+
+/**
+ * Defaults when the scenario leaves them out: a 1 MHz channel and a 100 K
+ * receiver (round planning values, invented for the defaults; set your own).
+ */
+export const SENSITIVITY_DEFAULTS = { bandwidth_mhz: 1, receiver_temp_k: 100 } as const;
+
+export const SKY_MODEL_LABEL = 'cold-sky power law T_sky = 60 K x (lambda / 1 m)^2.55 (common-practice approximation away from the galactic plane)';
+export const SKY_MODEL_NOTE =
+  'The sky model ignores the galactic plane and the galactic centre, where the sky is several times brighter at low frequencies: noise there is underestimated.';
+
+/** Sky brightness temperature of the cold-sky law, K (common practice: ~60 K x (lambda/1 m)^2.55 at low frequencies). */
+export function skyTemperatureK(freqMHz: number): number {
+  if (!(freqMHz > 0)) throw new RangeError(`frequency must be > 0 MHz, got ${freqMHz}`);
+  return 60 * Math.pow(wavelengthM(freqMHz), 2.55);
+}
+
+/**
+ * The radiometer equation (Dicke 1946): sigma_T = T_sys / sqrt(bandwidth x
+ * integration time), here per pixel with the exposure (beam-weighted hours)
+ * as the integration time. NaN where the exposure is 0 (never observed).
+ */
+export function noiseMap(exposureH: Float32Array, tSysK: number, bandwidthMHz: number): Float32Array {
+  if (!(tSysK >= 0)) throw new RangeError(`system temperature must be >= 0 K, got ${tSysK}`);
+  if (!(bandwidthMHz > 0)) throw new RangeError(`telescope.bandwidth_mhz must be > 0, got ${bandwidthMHz}`);
+  const k = tSysK / Math.sqrt(bandwidthMHz * 1e6 * 3600);
+  const out = new Float32Array(exposureH.length);
+  for (let i = 0; i < out.length; i++) out[i] = exposureH[i] > 0 ? k / Math.sqrt(exposureH[i]) : NaN;
+  return out;
+}
+
+/** T_sky, T_sys, the noise map and its median over covered pixels for one frequency. */
+export function sensitivityFor(
+  freqMHz: number,
+  exposureH: Float32Array,
+  covered: Uint8Array,
+  opts: { bandwidth_mhz: number; receiver_temp_k: number },
+): { t_sky_k: number; t_sys_k: number; noise: Float32Array; noise_median_k: number } {
+  const tSky = skyTemperatureK(freqMHz);
+  const tSys = tSky + opts.receiver_temp_k;
+  const noise = noiseMap(exposureH, tSys, opts.bandwidth_mhz);
+  // covered pixels always have exposure > 0 (the beam is > 1/2 within FWHM/2), so no NaN enters the median
+  const mask = new Uint8Array(covered.length);
+  for (let i = 0; i < covered.length; i++) mask[i] = covered[i] && exposureH[i] > 0 ? 1 : 0;
+  return { t_sky_k: tSky, t_sys_k: tSys, noise, noise_median_k: maskedMedian(noise, mask) };
+}

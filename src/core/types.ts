@@ -15,6 +15,10 @@ export interface Scenario {
     aperture_m: number;
     frequencies_mhz: number[];
     beam: { model: BeamModel; fwhm_factor: number };
+    /** optional (added): channel bandwidth for the noise maps, MHz; default in stats.ts SENSITIVITY_DEFAULTS */
+    bandwidth_mhz?: number;
+    /** optional (added): receiver noise temperature, K */
+    receiver_temp_k?: number;
   };
   constraints: {
     sun_max_elev_deg: number | null;
@@ -88,6 +92,20 @@ export interface FrequencySummary {
   usable_hours_beam_in_band: number;
   /** added field: usable hours with the zenith within center_radius_deg + FWHM/2 of l=0,b=0 */
   usable_hours_beam_near_center: number;
+  /** added: sky temperature of the stated sky model at this frequency, K */
+  t_sky_k?: number;
+  /** added: T_sky + T_receiver, K */
+  t_sys_k?: number;
+  /** added: median over covered pixels of the radiometer-equation noise, K */
+  noise_median_k?: number;
+}
+
+/** added: the sensitivity inputs and model a run used (the radiometer equation). */
+export interface SensitivitySummary {
+  bandwidth_mhz: number;
+  receiver_temp_k: number;
+  sky_model: string;
+  note: string;
 }
 
 export interface HoursSummary { total: number; sun_down: number; earth_down: number | null; usable: number }
@@ -108,6 +126,8 @@ export interface Summary {
   zenith: ZenithSummary;
   galactic: GalacticSummary;
   frequencies: FrequencySummary[];
+  /** added */
+  sensitivity?: SensitivitySummary;
 }
 
 /** Everything a plan run produces; the UI and the exports read only this. */
@@ -119,4 +139,6 @@ export interface PlanResult {
   /** Exposure in hours per HEALPix RING pixel at scenario.map.nside, one map per frequency (same order). */
   maps: Float32Array[];
   summary: Summary;
+  /** added: radiometer noise in kelvin per RING pixel, one map per frequency; NaN where the exposure is 0 */
+  noise_maps?: Float32Array[];
 }

@@ -15,7 +15,7 @@ import { parseScenario, ScenarioError } from '../core/scenario';
 import { trackStage } from '../core/ephemeris';
 import { galacticSummary, hoursSummary, usableMaskStage, zenithSummary } from '../core/usable';
 import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, type HitMap } from '../core/coverage';
-import { frequencySummary } from '../core/stats';
+import { frequencySummary, SENSITIVITY_DEFAULTS, sensitivityFor, SKY_MODEL_LABEL, SKY_MODEL_NOTE } from '../core/stats';
 import { stepMin } from '../core/time';
 
 export type ProgressFn = (stage: string, fraction: number) => void;
@@ -158,7 +158,12 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   // Exposure and covered sky per frequency
   const nside = s.map.nside;
   const maps: Float32Array[] = [];
+  const noiseMaps: Float32Array[] = [];
   const freqs: FrequencySummary[] = [];
+  const sens = {
+    bandwidth_mhz: s.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz,
+    receiver_temp_k: s.telescope.receiver_temp_k ?? SENSITIVITY_DEFAULTS.receiver_temp_k,
+  };
   const nf = beams.length;
   d.report('exposure', 0);
   for (let k = 0; k < nf; k++) {
@@ -166,9 +171,15 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     const map = await d.run('exposure', exposureStage(hit, beams[k], nside), lo, mid);
     const covered = await d.run('exposure', coveredStage(hit, beams[k].fwhmRad / 2, nside), mid, hi);
     maps.push(map);
-    freqs.push(
-      frequencySummary({ mhz: s.telescope.frequencies_mhz[k], fwhmRad: beams[k].fwhmRad, exposure: map, covered, track, usable, map: s.map }),
-    );
+    const mhz = s.telescope.frequencies_mhz[k];
+    const noise = sensitivityFor(mhz, map, covered, sens);
+    noiseMaps.push(noise.noise);
+    freqs.push({
+      ...frequencySummary({ mhz, fwhmRad: beams[k].fwhmRad, exposure: map, covered, track, usable, map: s.map }),
+      t_sky_k: noise.t_sky_k,
+      t_sys_k: noise.t_sys_k,
+      noise_median_k: noise.noise_median_k,
+    });
     await d.maybeTurn('exposure', hi);
   }
   d.report('exposure', 1);
@@ -183,10 +194,11 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     zenith: zenithSummary(track),
     galactic: galacticSummary(track, usable, s.map),
     frequencies: freqs,
+    sensitivity: { ...sens, sky_model: SKY_MODEL_LABEL, note: SKY_MODEL_NOTE },
   };
   d.check();
   d.report('summary', 1);
-  const result: PlanResult = { scenario: s, track, usable, maps, summary };
+  const result: PlanResult = { scenario: s, track, usable, maps, summary, noise_maps: noiseMaps };
   internals.set(result, { hit });
   return result;
 }

@@ -39,7 +39,9 @@ export function transferableCopy(r: PlanResult): { copy: PlanResult; transfer: A
     const a = r.track[k];
     (track as unknown as Record<string, unknown>)[k] = a === null ? null : dup(a);
   }
-  return { copy: { scenario: r.scenario, track, usable: dup(r.usable), maps: r.maps.map(dup), summary: r.summary }, transfer };
+  const copy: PlanResult = { scenario: r.scenario, track, usable: dup(r.usable), maps: r.maps.map(dup), summary: r.summary };
+  if (r.noise_maps) copy.noise_maps = r.noise_maps.map(dup);
+  return { copy, transfer };
 }
 
 /** Installs the worker's message handler: one run at a time, a new run aborts the previous one. */
