@@ -1,8 +1,8 @@
 import { mkdirSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { estimateRun } from '../core/limits';
-import { coverageCsvChunks, trackCsvChunks } from '../core/export/csv';
+import { describeEstimate, estimateRun } from '../core/limits';
+import { CHUNK_ROWS, coverageCsvChunks, trackCsvChunks } from '../core/export/csv';
 import { coverageFits } from '../core/export/fits';
 import { summaryJson } from '../core/export/summary';
 import { AtomicFileSet } from './atomicWrite';
@@ -70,23 +70,28 @@ export async function planCommand(argv: string[], io: CliIo, deps: PlanDeps = {}
   prepareOutDir(outDir, values.out);
 
   const runPlan = deps.runPlan ?? (await loadRunPlan());
-  const progress = progressReporter(io, !values.quiet && (io.errIsTTY || Boolean(values.progress)));
-  const result = await runPlan(scenario, { onProgress: progress.report });
-  progress.done();
-
+  const showProgress = !values.quiet && (io.errIsTTY || Boolean(values.progress));
+  if (showProgress && (values.progress || est.seconds_estimate > 5)) io.err(`estimate: ${describeEstimate(est)}\n`);
+  const progress = progressReporter(io, showProgress);
+  // Ctrl-C (or a kill) while computing or writing: remove the temporaries, keep every earlier file.
   const files = new AtomicFileSet();
   const onSignal = (sig: NodeJS.Signals) => {
     files.abort();
+    progress.done();
     io.err(`swathe plan: interrupted (${sig}); no output file was changed\n`);
     process.exit(sig === 'SIGINT' ? 130 : 143);
   };
   process.once('SIGINT', onSignal);
   process.once('SIGTERM', onSignal);
   try {
+    const result = await runPlan(scenario, { onProgress: progress.report });
     files.write(join(outDir, 'summary.json'), [summaryJson(result.summary)]);
-    files.write(join(outDir, 'track.csv'), trackCsvChunks(result));
-    files.write(join(outDir, 'coverage.csv'), coverageCsvChunks(result));
+    files.write(join(outDir, 'track.csv'), counted(trackCsvChunks(result), result.track.n, 'writing track.csv', progress.report));
+    const npix = 12 * scenario.map.nside ** 2;
+    files.write(join(outDir, 'coverage.csv'), counted(coverageCsvChunks(result), npix, 'writing coverage.csv', progress.report));
+    progress.report('writing coverage.fits', 0);
     files.write(join(outDir, 'coverage.fits'), [coverageFits(result)]);
+    progress.done();
     const written = files.commit();
     if (!values.quiet) {
       const h = result.summary.hours;
@@ -94,6 +99,7 @@ export async function planCommand(argv: string[], io: CliIo, deps: PlanDeps = {}
       io.out(`${result.summary.samples} samples at ${Number(result.summary.step_min.toPrecision(4))} min; usable ${h.usable.toFixed(1)} h of ${h.total.toFixed(1)} h\n`);
     }
   } catch (e) {
+    progress.done();
     files.abort();
     throw e;
   } finally {
@@ -101,6 +107,16 @@ export async function planCommand(argv: string[], io: CliIo, deps: PlanDeps = {}
     process.removeListener('SIGTERM', onSignal);
   }
   return EXIT_OK;
+}
+
+/** Passes chunks through, reporting the fraction of rows written. */
+function* counted(chunks: Iterable<string>, rows: number, label: string, report: (stage: string, f: number) => void): Generator<string> {
+  let done = -1; // the first chunk is the header
+  for (const c of chunks) {
+    yield c;
+    done++;
+    report(label, Math.min(1, (done * CHUNK_ROWS) / Math.max(1, rows)));
+  }
 }
 
 function argError(e: unknown): string {

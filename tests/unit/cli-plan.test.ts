@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -243,5 +243,25 @@ describe('with the real engine', () => {
     const good = run('plan', 'good.json', '--out', 'o');
     expect([good.status, good.stderr]).toEqual([0, '']);
     expect(readdirSync(join(d, 'o')).sort()).toEqual(['coverage.csv', 'coverage.fits', 'summary.json', 'track.csv']);
+  });
+
+  it('Ctrl-C during a run exits 130, keeps the earlier files and leaves no temporary file', async () => {
+    const d = tmp();
+    // a two-year lunar run at a 1-minute step (about a million samples) takes a few seconds
+    writeFileSync(join(d, 'long.json'), JSON.stringify({ ...GOOD, span: { start: '2031-01-01T00:00:00Z', end: '2033-01-01T00:00:00Z', step_min: 1 }, map: { nside: 64 } }));
+    mkdirSync(join(d, 'o'));
+    writeFileSync(join(d, 'o', 'summary.json'), 'previous run');
+    const bin = new URL('../../bin/swathe.mjs', import.meta.url).pathname;
+    const child = spawn(process.execPath, [bin, 'plan', 'long.json', '--out', 'o', '--progress'], { cwd: d, stdio: ['ignore', 'pipe', 'pipe'] });
+    let err = '';
+    const done = new Promise<number | null>((res) => child.on('exit', (code) => res(code)));
+    await new Promise<void>((res) => child.stderr.on('data', (b) => { err += String(b); if (err.includes('estimate:')) res(); }));
+    await new Promise((r) => setTimeout(r, 300));
+    child.kill('SIGINT');
+    const code = await done;
+    expect(code).toBe(130);
+    expect(err).toContain('swathe plan: interrupted (SIGINT); no output file was changed');
+    expect(readdirSync(join(d, 'o'))).toEqual(['summary.json']);
+    expect(readFileSync(join(d, 'o', 'summary.json'), 'utf8')).toBe('previous run');
   });
 });

@@ -64,7 +64,8 @@ function trimZeros(s: string): string {
   return m + exp;
 }
 
-const CHUNK_ROWS = 16384;
+/** Rows per chunk of the streamed CSVs (after the header chunk). */
+export const CHUNK_ROWS = 16384;
 
 export function coverageCsvHeader(result: PlanResult): string {
   const cols = ['pixel', 'ra_deg', 'dec_deg', 'l_deg', 'b_deg', ...result.scenario.telescope.frequencies_mhz.map(coverageColumnName)];
