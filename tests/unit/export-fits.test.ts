@@ -81,6 +81,13 @@ describe('coverageFits', () => {
     expect(value(e.cards, 'SCENNAME')).toBe("'x'' / END = T?SIMPLE  = F'");
   });
 
+  it('writes span times in the FITS date form whatever form the scenario used', () => {
+    const s = syntheticScenario({ span: { start: '2031-01-01T00:00Z', end: '2031-01-01T01:00:00.25Z', step_min: 10 } });
+    const e = cards(coverageFits(syntheticResult(s)), 2880);
+    expect(value(e.cards, 'DATE-BEG')).toBe("'2031-01-01T00:00:00'");
+    expect(value(e.cards, 'DATE-END')).toBe("'2031-01-01T01:00:00.250'");
+  });
+
   it('writes real keywords as FITS reals and names columns EXP_<f>MHZ', () => {
     expect(realCard('SITELAT', 20).trimEnd()).toMatch(/^SITELAT =\s+20\.0$/);
     expect(realCard('X', 1e-7).slice(10, 30).trim()).toBe('1E-7');

@@ -1,4 +1,5 @@
 import type { PlanResult } from '../types';
+import { parseUtcMs } from '../time';
 
 // coverage.fits: a HEALPix map in the FITS binary-table form (ARCHITECTURE.md
 // §3), the layout HEALPix readers expect: a primary HDU without data, then a
@@ -125,9 +126,11 @@ export function fitsColumnName(mhz: number): string {
   return `EXP_${String(mhz).toUpperCase()}MHZ`;
 }
 
-/** FITS date-time (ISO 8601 without the zone letter, UTC given by TIMESYS). */
+/** FITS date-time 'YYYY-MM-DDThh:mm:ss[.sss]' (FITS 4.0 §9.1.1; UTC given by TIMESYS), from any time the scenario accepts. */
 function fitsDate(iso: string): string {
-  return iso.replace(/Z$/, '');
+  const ms = parseUtcMs(iso);
+  if (ms === null) return fitsAscii(iso);
+  return new Date(ms).toISOString().replace(/\.000Z$|Z$/, '');
 }
 
 /** coverage.fits bytes for a plan result. */
