@@ -25,6 +25,12 @@ import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, queryDiscRingRan
 export const MAX_HIT_NSIDE = 8192;
 /** Hit pixels for the shared fine map: resolution at most FWHM_min / this. */
 export const FINE_HIT_PER_FWHM = 10;
+/**
+ * Sub-steps along the path are at most this many fine pixels long, so the
+ * path leaves time in every fine pixel it crosses (1.5 was measured to move
+ * the covered-sky fraction by ~1% against healpy; 1 keeps it within 0.5%).
+ */
+export const SUBSTEP_PER_PIXEL = 1;
 /** Hit pixels used for a beam's exposure: resolution at most FWHM / this (with centroids the maps stay within ~0.2% of the exact ones). */
 export const EXPOSURE_HIT_PER_FWHM = 6;
 
@@ -125,8 +131,8 @@ const PAGE = 1 << PAGE_BITS;
 
 /**
  * Bins the usable time of the track on a NESTED grid at opts.nside, treating
- * the track as a continuous path (sub-steps of at most one pixel between
- * consecutive zeniths, so no pixel the path crosses is skipped).
+ * the track as a continuous path (sub-steps of at most SUBSTEP_PER_PIXEL
+ * pixels between consecutive zeniths, however long the sample step).
  */
 export function* hitMapStage(track: Track, usable: Uint8Array, opts: { nside: number; stepPerPixel?: number }): Stage<HitMap> {
   const nside = opts.nside;
@@ -137,7 +143,7 @@ export function* hitMapStage(track: Track, usable: Uint8Array, opts: { nside: nu
   // Paged accumulator: a track touches a thin band of a fine grid, and NESTED
   // indices of nearby pixels are close, so pages of 1024 pixels stay few.
   const pages: (Float64Array | undefined)[] = new Array(Math.ceil(nside2npix(nside) / PAGE));
-  const maxStep = nside2resolRad(nside) * (opts.stepPerPixel ?? 1);
+  const maxStep = nside2resolRad(nside) * (opts.stepPerPixel ?? SUBSTEP_PER_PIXEL);
   yield* walkPath(track, usable, maxStep, (x, y, z, h) => {
     const p = vec2pixNest(nside, x, y, z);
     const pi = p >>> PAGE_BITS;
