@@ -41,7 +41,7 @@ export interface SiteGlobeProps {
 }
 
 const CLICK_SLOP_PX = 4;
-const CAMERA_DISTANCE = 5.6;
+const CAMERA_DISTANCE = 5.9;
 const SUN_COLOUR = 0xffb000;
 const EARTH_ARROW_COLOUR = 0x3d8bff;
 const SITE_COLOUR = 0xe8112d;
@@ -106,12 +106,19 @@ function gridLines(): THREE.Group {
   g.add(mk(minor, 0x1b1b24, 0.45));
   g.add(mk(major, 0x101018, 0.85));
   // A few labels so the user knows which way is east.
-  const labels: [number, number, string][] = [
-    [0, 0, '0°'], [0, 90, '90°E'], [0, 180, '180°'], [0, -90, '90°W'], [60, 0, '60°N'], [-60, 0, '60°S'],
-  ];
+  const labels: [number, number, string][] = [];
+  for (let lon = -150; lon <= 180; lon += 30) {
+    labels.push([0, lon, lon === 0 || lon === 180 ? `${lon}°` : `${Math.abs(lon)}°${lon < 0 ? 'W' : 'E'}`]);
+  }
+  for (const lat of [-60, -30, 30, 60]) {
+    for (const lon of [-135, -45, 45, 135]) labels.push([lat, lon, `${Math.abs(lat)}°${lat < 0 ? 'S' : 'N'}`]);
+  }
   for (const [lat, lon, t] of labels) {
     const s = labelSprite(t, '#ffffff', 0.12);
     s.position.copy(v3(latLonToScene(lat, lon, 1.04)));
+    s.material.depthTest = false;
+    // Shown only while facing the viewer (see faceLabels), so no label sits on the limb or shows through.
+    s.userData.gridLabel = true;
     g.add(s);
   }
   return g;
@@ -139,13 +146,35 @@ function paintSurface(geo: THREE.BufferGeometry, body: BodyName, shading: GlobeS
 function directionArrow(dir: V3, colour: number, text: string, cssColour: string): THREE.Group {
   const g = new THREE.Group();
   const d = v3(dir).normalize();
-  const from = d.clone().multiplyScalar(1.04);
-  const arrow = new THREE.ArrowHelper(d, from, 0.38, colour, 0.12, 0.08);
+  const from = d.clone().multiplyScalar(1.03);
+  const arrow = new THREE.ArrowHelper(d, from, 0.36, colour, 0.12, 0.08);
   g.add(arrow);
   const s = labelSprite(text, cssColour, 0.13);
-  s.position.copy(d.clone().multiplyScalar(1.56));
+  s.position.copy(d.clone().multiplyScalar(1.42));
+  // Anchored toward the globe's centre on screen (see faceLabels), so it stays inside the view.
+  s.userData.arrowLabel = true;
+  s.material.depthTest = false;
   g.add(s);
   return g;
+}
+
+/** Grid labels: visible only well inside the visible hemisphere. Arrow labels: extend from the tip toward the centre. */
+function faceLabels(scene: THREE.Scene, camera: THREE.PerspectiveCamera): void {
+  const view = camera.position.clone().normalize();
+  const right = new THREE.Vector3(1, 0, 0).applyQuaternion(camera.quaternion);
+  const up = new THREE.Vector3(0, 1, 0).applyQuaternion(camera.quaternion);
+  scene.traverse((o) => {
+    if (!(o instanceof THREE.Sprite)) return;
+    if (o.userData.gridLabel) o.visible = o.position.clone().normalize().dot(view) > 0.3;
+    else if (o.userData.arrowLabel) {
+      const p = o.position;
+      o.center.set(p.dot(right) > 0 ? 1 : 0, p.dot(up) > 0 ? 1.1 : -0.1);
+      // Hidden only when the tip is behind the globe's disc as seen from the camera.
+      const along = p.dot(view);
+      const perp = p.clone().sub(view.clone().multiplyScalar(along)).length();
+      o.visible = !(along < 0 && perp < 1.05);
+    }
+  });
 }
 
 interface Scene3 {
@@ -208,7 +237,12 @@ function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
     pending = true;
     requestAnimationFrame(() => {
       pending = false;
+      faceLabels(scene, camera);
       renderer.render(scene, camera);
+      // Apparent radius of the sphere on screen (CSS px), for tests that click on it.
+      const d = camera.position.length();
+      const half = canvas.clientHeight / 2;
+      canvas.dataset.sphereRadiusPx = ((half * Math.tan(Math.asin(Math.min(1, 1 / d)))) / Math.tan((camera.fov * Math.PI) / 360)).toFixed(1);
       onRendered();
     });
   };
