@@ -27,8 +27,13 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
   try {
     if (cmd === undefined || cmd === '--help' || cmd === '-h' || cmd === 'help') {
       if (cmd === 'help' && rest[0] && COMMANDS[rest[0]]) return await COMMANDS[rest[0]].run(['--help'], io);
+      // No command at all is a usage mistake: help goes to stderr with exit 2.
+      if (cmd === undefined) {
+        io.err(mainHelp());
+        return EXIT_BAD_INPUT;
+      }
       io.out(mainHelp());
-      return cmd === undefined ? EXIT_BAD_INPUT : EXIT_OK;
+      return EXIT_OK;
     }
     if (cmd === '--version' || cmd === '-V') {
       io.out(`swathe ${VERSION}\n`);

@@ -168,6 +168,9 @@ describe('help and dispatch', () => {
     const c = io(tmpdir());
     expect(await runCli(['explode'], c.io)).toBe(2);
     expect(c.cap.err).toBe('swathe: unknown command "explode" (commands: plan; see swathe --help)\n');
+    const none = io(tmpdir());
+    expect(await runCli([], none.io)).toBe(2);
+    expect([none.cap.out, none.cap.err.startsWith('swathe ')]).toEqual(['', true]);
     const v = io(tmpdir());
     expect(await runCli(['--version'], v.io)).toBe(0);
     expect(v.cap.out).toMatch(/^swathe \d+\.\d+\.\d+\n$/);
