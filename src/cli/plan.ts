@@ -23,10 +23,10 @@ the zenith track and the exposure maps, and writes into DIR (made if missing):
 Each file is written under a temporary name and renamed once all are complete.
 
 Options:
-  --out DIR     output directory (required)
-  --progress    show progress on stderr even when it is not a terminal
-  --quiet       no progress, nothing on stdout
-  -h, --help    show this help
+  -o, --out DIR   output directory (required)
+  --progress      show progress on stderr even when it is not a terminal
+  -q, --quiet     no progress, nothing on stdout
+  -h, --help      show this help
 
 Exit status: 0 done; 2 bad input (the message names the field); 1 other failure.
 Figures are planning estimates from stated models, not a mission's verified analysis.
