@@ -20,7 +20,7 @@ import type { Stage, Track } from './types';
 import { drain } from './types';
 import type { BeamModel } from './types';
 import { makeBeam } from './beam';
-import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
+import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, pix2vecRingInto, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
 
 export const MAX_HIT_NSIDE = 8192;
 /** Hit pixels for the shared fine map: resolution at most FWHM_min / this. */
@@ -301,6 +301,22 @@ function centroids(h: HitMap): Float64Array {
   return out;
 }
 
+/** Largest output nside whose full centre table is used (19 MB); beyond, centres are computed per disc range. */
+export const CENTRE_TABLE_MAX_NSIDE = 256;
+
+/**
+ * Centres of the RING pixels [a, b) at `nside`: a view into the cached table
+ * when it is small enough, else computed into `scratch`. Returns the array
+ * and the pixel index its first entry stands for.
+ */
+function centresOf(nside: number, a: number, b: number, scratch: { buf: Float64Array }): [Float64Array, number] {
+  if (nside <= CENTRE_TABLE_MAX_NSIDE) return [pixelCentersRing(nside), 0];
+  if (scratch.buf.length < 3 * (b - a)) scratch.buf = new Float64Array(3 * (b - a) * 2);
+  const out = scratch.buf;
+  for (let q = a, o = 0; q < b; q++, o += 3) pix2vecRingInto(nside, q, out, o);
+  return [out, a];
+}
+
 /**
  * Exposure in hours per RING pixel at `nside`: each hit pixel (degraded to a
  * resolution of FWHM/6 or finer) spreads its hours over the output pixels whose
@@ -311,7 +327,7 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
   checkBeam(beam);
   const level = Math.min(hit.nside, nsideForResolution(beam.fwhmRad / (opts.hitPerFwhm ?? EXPOSURE_HIT_PER_FWHM)));
   const h = degradeHitMap(hit, level);
-  const centres = pixelCentersRing(nside);
+  const scratch = { buf: new Float64Array(0) };
   const { uMax, scale, values } = beamTable(beam);
   const acc = new Float64Array(nside2npix(nside));
   const cen = centroids(h);
@@ -328,8 +344,10 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
     const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], radius, false);
     for (let r = 0; r < ranges.length; r += 2) {
       const end = ranges[r + 1];
+      const [centres, base] = centresOf(nside, ranges[r], end, scratch);
       for (let q = ranges[r]; q < end; q++) {
-        const px = centres[3 * q], py = centres[3 * q + 1], pz = centres[3 * q + 2];
+        const o = 3 * (q - base);
+        const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
         let sum = 0;
         for (let k = k0; k < k1; k++) {
           const u = 1 - (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz);
@@ -362,7 +380,7 @@ export function* coveredStage(hit: HitMap, radiusRad: number, nside: number, opt
   // the finest hit map by default: its centroids follow the path most closely
   const level = opts.hitPerRadius ? Math.min(hit.nside, nsideForResolution(radiusRad / opts.hitPerRadius)) : hit.nside;
   const h = degradeHitMap(hit, level);
-  const centres = pixelCentersRing(nside);
+  const scratch = { buf: new Float64Array(0) };
   const mask = new Uint8Array(nside2npix(nside));
   const cen = centroids(h);
   // groups about as wide as the radius or an output pixel, whichever is larger
@@ -377,9 +395,11 @@ export function* coveredStage(hit: HitMap, radiusRad: number, nside: number, opt
     const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], radius, false);
     for (let r = 0; r < ranges.length; r += 2) {
       const end = ranges[r + 1];
+      const [centres, base] = centresOf(nside, ranges[r], end, scratch);
       for (let q = ranges[r]; q < end; q++) {
         if (mask[q]) continue;
-        const px = centres[3 * q], py = centres[3 * q + 1], pz = centres[3 * q + 2];
+        const o = 3 * (q - base);
+        const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
         for (let k = k0; k < k1; k++) {
           if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz >= cosR) { mask[q] = 1; break; }
         }
@@ -411,7 +431,7 @@ export function* naiveExposureStage(
   checkOutputNside(nside);
   checkBeam(beam);
   const sub = opts.subSteps ?? 1;
-  const centres = pixelCentersRing(nside);
+  const scratch = { buf: new Float64Array(0) };
   const acc = new Float64Array(nside2npix(nside));
   const { zx, zy, zz, weight_h, n } = track;
   const e = new Float64Array(3);
@@ -430,8 +450,10 @@ export function* naiveExposureStage(
       const ranges = queryDiscRingRanges(nside, x, y, z, beam.cutoffRad, false);
       for (let r = 0; r < ranges.length; r += 2) {
         const end = ranges[r + 1];
+        const [centres, base] = centresOf(nside, ranges[r], end, scratch);
         for (let q = ranges[r]; q < end; q++) {
-          const cos = x * centres[3 * q] + y * centres[3 * q + 1] + z * centres[3 * q + 2];
+          const o = 3 * (q - base);
+          const cos = x * centres[o] + y * centres[o + 1] + z * centres[o + 2];
           acc[q] += wk * beam.powerAt(Math.acos(Math.min(1, cos)));
         }
         work += end - ranges[r];
