@@ -2,7 +2,9 @@
 """Independent exposure map and covered sky with healpy (the HEALPix reference
 implementation, Debian python3-healpy), for tests/reference/coverage-healpy.test.ts.
 
-Reads JSON on stdin: {"nside", "fwhm_rad", "cutoff_rad", "points": [[x, y, z, hours], ...]}
+Reads JSON on stdin: {"nside", "fwhm_rad", "cutoff_rad", "points": [[x, y, z, hours], ...],
+optionally "model": "airy" with "lambda_over_d" (B = [2 J1(x)/x]^2, x = pi sin(theta) / (lambda/D),
+J1 from scipy.special)}
 (the usable path already cut into fine pieces). Writes JSON on stdout:
 {"exposure": [...RING order...], "covered_fraction", "healpy": version}.
 Exposure = sum over points of hours * exp(-4 ln2 theta^2 / FWHM^2) at every pixel
@@ -23,12 +25,28 @@ npix = hp.nside2npix(nside)
 expo = np.zeros(npix)
 covered = np.zeros(npix, dtype=bool)
 a = 4 * np.log(2) / fwhm**2
+model = d.get("model", "gaussian")
+if model == "airy":
+    from scipy.special import j1
+
+    lod = float(d["lambda_over_d"])
+
+    def power(th):
+        x = np.pi * np.sin(th) / lod
+        out = np.ones_like(x)
+        nz = x > 1e-8
+        out[nz] = (2 * j1(x[nz]) / x[nz]) ** 2
+        return out
+else:
+
+    def power(th):
+        return np.exp(-a * th * th)
 for x, y, z, w in pts:
     v = np.array([x, y, z])
     v /= np.linalg.norm(v)
     ip = hp.query_disc(nside, v, cut)
     cx, cy, cz = hp.pix2vec(nside, ip)
     th = np.arccos(np.clip(cx * v[0] + cy * v[1] + cz * v[2], -1, 1))
-    expo[ip] += w * np.exp(-a * th * th)
+    expo[ip] += w * power(th)
     covered[hp.query_disc(nside, v, fwhm / 2)] = True
 json.dump({"exposure": expo.tolist(), "covered_fraction": float(covered.mean()), "healpy": hp.__version__}, sys.stdout)

@@ -7,6 +7,9 @@ import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { coveredMask, exposureMap, hitMap, hitNsideFor, relativeL1 } from '../../src/core/coverage';
 import { blockMask, gaussianProfile, smallCircleTrack } from '../unit/coverage-fixtures';
+import { makeBeam } from '../../src/core/beam';
+import { runPlan } from '../../src/engine/runPlan';
+import type { Scenario } from '../../src/core/types';
 
 const PY = '/usr/bin/python3';
 const script = fileURLToPath(new URL('./coverage-healpy.py', import.meta.url));
@@ -50,6 +53,53 @@ describe.skipIf(!hasHealpy)('coverage vs healpy', () => {
       let c = 0;
       for (const v of mask) c += v;
       expect(Math.abs(c / mask.length / ref.covered_fraction - 1)).toBeLessThan(0.01);
+    });
+  }
+});
+
+const hasScipy = hasHealpy && spawnSync(PY, ['-c', 'import scipy.special'], { encoding: 'utf8' }).status === 0;
+
+describe.skipIf(!hasHealpy)('a whole plan vs healpy', () => {
+  // An invented lunar site over 25 days (about one lunar day and night), the
+  // plan's own track and usable flags, beams from beam.ts; healpy sums the beam
+  // (cut where B < 1e-3, as ARCHITECTURE.md section 2 allows) around 8 pieces
+  // of every usable sample's path and finds the covered pixels.
+  const scenario: Scenario = {
+    format: 'swathe.scenario/1',
+    name: 'healpy check (invented site)',
+    site: { body: 'moon', lat_deg: 12.5, lon_deg: -140 },
+    span: { start: '2032-05-01T00:00:00Z', end: '2032-05-26T00:00:00Z', step_min: 40 },
+    telescope: { aperture_m: 350, frequencies_mhz: [9, 27], beam: { model: 'gaussian', fwhm_factor: 1.15 } },
+    constraints: { sun_max_elev_deg: 0, earth_max_elev_deg: 0, horizon_mask: null },
+    map: { nside: 64, galactic_band_deg: 10, galactic_center_radius_deg: 20 },
+  };
+  for (const model of ['gaussian', 'airy'] as const) {
+    it.skipIf(model === 'airy' && !hasScipy)(`${model} beams: each exposure map within 1% (relative L1), max and covered fraction within 1%`, async () => {
+      const s = { ...scenario, telescope: { ...scenario.telescope, beam: { model, fwhm_factor: 1.15 } } };
+      const r = await runPlan(s);
+      const t = r.track;
+      const pts: number[][] = [];
+      for (let i = 0; i < t.n; i++) {
+        if (!r.usable[i]) continue;
+        const a = [t.zx[i], t.zy[i], t.zz[i]];
+        const e = i + 1 < t.n ? [t.zx[i + 1], t.zy[i + 1], t.zz[i + 1]] : a.map((v, k) => v + (v - [t.zx[i - 1], t.zy[i - 1], t.zz[i - 1]][k]) * (t.weight_h[i] / (t.step_min / 60)));
+        for (let j = 0; j < 8; j++) pts.push([...a.map((v, k) => v + (e[k] - v) * ((j + 0.5) / 8)), t.weight_h[i] / 8]);
+      }
+      expect(pts.length).toBeGreaterThan(1000);
+      for (let k = 0; k < 2; k++) {
+        const b = makeBeam(s.telescope.frequencies_mhz[k], s.telescope.aperture_m, s.telescope.beam);
+        const out = spawnSync(PY, [script], {
+          input: JSON.stringify({ nside: 64, fwhm_rad: b.fwhmRad, cutoff_rad: b.cutoffRad, model, lambda_over_d: b.wavelengthM / s.telescope.aperture_m, points: pts }),
+          encoding: 'utf8',
+          maxBuffer: 1 << 28,
+        });
+        expect(out.status, out.stderr).toBe(0);
+        const ref = JSON.parse(out.stdout) as { exposure: number[]; covered_fraction: number };
+        expect(relativeL1(r.maps[k], ref.exposure)).toBeLessThan(0.01);
+        const f = r.summary.frequencies[k];
+        expect(Math.abs(f.exposure_max_h / Math.max(...ref.exposure) - 1)).toBeLessThan(0.01);
+        expect(Math.abs(f.sky_fraction_covered / ref.covered_fraction - 1)).toBeLessThan(0.01);
+      }
     });
   }
 });
