@@ -1,6 +1,6 @@
 import type { PlanResult } from '../types';
 import { pix2vecRingInto } from '../healpix';
-import { vecToGalDeg, vecToRaDecDeg, type Vec3 } from '../frames';
+import { ICRS_TO_GAL } from '../frames';
 
 // coverage.csv and track.csv, exactly as ARCHITECTURE.md §3. Both come as a
 // stream of chunks too, because a full-resolution map (nside 1024: 12.6
@@ -32,9 +32,17 @@ export function coverageColumnName(mhz: number): string {
 /** Degrees with 6 decimals (3.6 milliarcseconds), trailing zeros dropped. */
 export function fmtDeg(x: number): string {
   if (!Number.isFinite(x)) return '';
-  let s = x.toFixed(6);
-  if (s.includes('.')) s = s.replace(/0+$/, '').replace(/\.$/, '');
+  const s = trimFraction(x.toFixed(6));
   return s === '-0' ? '0' : s;
+}
+
+/** Drops trailing zeros of a plain decimal (and the point if nothing is left after it). */
+function trimFraction(s: string): string {
+  if (s.indexOf('.') < 0) return s;
+  let end = s.length;
+  while (s.charCodeAt(end - 1) === 48) end--; // '0'
+  if (s.charCodeAt(end - 1) === 46) end--; // '.'
+  return end === s.length ? s : s.slice(0, end);
 }
 
 /** Right ascension or galactic longitude in [0, 360): rounding up to 360 reads as 0. */
@@ -58,10 +66,7 @@ export function fmtF32(x: number): string {
 
 function trimZeros(s: string): string {
   const e = s.indexOf('e');
-  const mant = e >= 0 ? s.slice(0, e) : s;
-  const exp = e >= 0 ? s.slice(e) : '';
-  const m = mant.includes('.') ? mant.replace(/0+$/, '').replace(/\.$/, '') : mant;
-  return m + exp;
+  return e < 0 ? trimFraction(s) : trimFraction(s.slice(0, e)) + s.slice(e);
 }
 
 /** Rows per chunk of the streamed CSVs (after the header chunk). */
@@ -81,21 +86,39 @@ export function* coverageCsvChunks(result: PlanResult): Generator<string, void, 
     if (m.length !== npix) throw new Error(`coverage map has ${m.length} pixels, expected ${npix} for nside ${nside}`);
   }
   yield coverageCsvHeader(result);
-  const v: Vec3 = [0, 0, 0];
-  let rows: string[] = [];
+  const v = new Float64Array(3);
+  const G = ICRS_TO_GAL;
+  const nf = maps.length;
+  let chunk = '';
   for (let p = 0; p < npix; p++) {
     pix2vecRingInto(nside, p, v);
-    const [ra, dec] = vecToRaDecDeg(v);
-    const [l, b] = vecToGalDeg(v);
-    let row = `${p},${fmtLonDeg(ra)},${fmtDeg(dec)},${fmtLonDeg(l)},${fmtDeg(b)}`;
-    for (let f = 0; f < maps.length; f++) row += ',' + fmtF32(maps[f][p]);
-    rows.push(row);
-    if (rows.length === CHUNK_ROWS) {
-      yield rows.join('\n') + '\n';
-      rows = [];
+    const x = v[0], y = v[1], z = v[2];
+    // the same lon/lat as frames.vecToRaDecDeg / vecToGalDeg, without allocating per pixel
+    const gx = G[0] * x + G[1] * y + G[2] * z;
+    const gy = G[3] * x + G[4] * y + G[5] * z;
+    const gz = G[6] * x + G[7] * y + G[8] * z;
+    chunk += `${p},${fmtLonDeg(lonDeg(x, y))},${fmtDeg(latDeg(x, y, z))},${fmtLonDeg(lonDeg(gx, gy))},${fmtDeg(latDeg(gx, gy, gz))}`;
+    for (let f = 0; f < nf; f++) chunk += ',' + fmtF32(maps[f][p]);
+    chunk += '\n';
+    if ((p + 1) % CHUNK_ROWS === 0) {
+      yield chunk;
+      chunk = '';
     }
   }
-  if (rows.length) yield rows.join('\n') + '\n';
+  if (chunk) yield chunk;
+}
+
+const RAD2DEG = 180 / Math.PI;
+
+function lonDeg(x: number, y: number): number {
+  let lon = Math.atan2(y, x) * RAD2DEG;
+  if (lon < 0) lon += 360;
+  if (lon >= 360) lon -= 360;
+  return lon;
+}
+
+function latDeg(x: number, y: number, z: number): number {
+  return Math.atan2(z, Math.hypot(x, y)) * RAD2DEG;
 }
 
 export function coverageCsv(result: PlanResult): string {
