@@ -10,8 +10,9 @@
 //    4-point (cubic) Lagrange polynomials on a 1-day grid and the spin is applied
 //    exactly, so a fast spin (the Earth's) costs nothing in accuracy. The Sun's
 //    and Earth's positions from the body centre (J2000, AU) are interpolated the
-//    same way on a grid fine enough for the Moon's orbit (6 h for the Moon).
-// Per sample both paths then run the same code (writeSample), so any difference
+//    same way on a grid fine enough for the Moon's orbit (12 h for the Moon:
+//    its Earth direction then stays within 3e-5 deg of the exact one).
+// Per sample both paths then run the same code (sampleKernel), so any difference
 // between them is the interpolation alone; bench/ephemeris.ts measures it.
 
 import * as AE from 'astronomy-engine';
@@ -34,7 +35,7 @@ export const MAX_TRACK_SAMPLES = 20_000_000;
 
 /** Interpolation grid spacing (days) for the slow rotation part Q and for the Sun/Earth vectors. */
 export const ROT_NODE_DAYS = 1;
-export const VEC_NODE_DAYS: Record<BodyName, number> = { moon: 0.25, earth: 1, mars: 1 };
+export const VEC_NODE_DAYS: Record<BodyName, number> = { moon: 0.5, earth: 1, mars: 1 };
 
 export interface SampleGrid { t0_ms: number; end_ms: number; step_min: number; n: number }
 
