@@ -178,9 +178,31 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
 
   const hoverAt = (clientX: number, clientY: number) => {
     const canvas = canvasRef.current;
-    if (!canvas || !geometry) return;
+    if (!canvas) return;
     const r = canvas.getBoundingClientRect();
-    const x = clientX - r.left, y = clientY - r.top;
+    hoverLocal(clientX - r.left, clientY - r.top);
+  };
+  // Keyboard readout: arrow keys move a cursor over the sky in the display frame's coordinates.
+  const keyCursor = useRef<[number, number]>([0, 0]);
+  const onKey = (e: React.KeyboardEvent<HTMLCanvasElement>) => {
+    if (!geometry) return;
+    const step = e.shiftKey ? 10 : 2;
+    let [lon, lat] = keyCursor.current;
+    const dir = geometry.flipLongitude ? 1 : -1; // the arrow moves the cursor the way it points on screen
+    if (e.key === 'ArrowLeft') lon -= dir * step;
+    else if (e.key === 'ArrowRight') lon += dir * step;
+    else if (e.key === 'ArrowUp') lat = Math.min(89.9, lat + step);
+    else if (e.key === 'ArrowDown') lat = Math.max(-89.9, lat - step);
+    else if (e.key === 'Escape') { setHover(null); onHover?.(null); return; }
+    else return;
+    e.preventDefault();
+    lon = ((((lon + 180) % 360) + 360) % 360) - 180;
+    keyCursor.current = [lon, lat];
+    const p = geometry.projection([Math.max(-179.99, Math.min(179.99, lon)), lat]);
+    if (p) hoverLocal(p[0], p[1]);
+  };
+  const hoverLocal = (x: number, y: number) => {
+    if (!geometry) return;
     const v = screenToJ2000(geometry, frame, x, y);
     if (!v) {
       if (hover) { setHover(null); onHover?.(null); }
@@ -201,6 +223,7 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     : diff
       ? `Sky map: exposure difference at ${f} MHz, ${diff.labelB} minus ${diff.labelA}, ${frame} frame`
       : `Sky map: exposure at ${f} MHz, ${frame} frame, ${scale} scale`;
+  const labelFull = `${label}. Arrow keys move a readout cursor.`;
   const entries = legendEntries(result, view);
   const tipLeft = hover && hover.x > width * 0.62;
 
@@ -211,16 +234,26 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
           ref={canvasRef}
           data-testid="sky-map-canvas"
           role="img"
-          aria-label={label}
+          aria-label={labelFull}
           style={{ width: width || '100%', height: height || undefined, display: 'block', cursor: 'crosshair', touchAction: 'none' }}
           onPointerMove={(e) => hoverAt(e.clientX, e.clientY)}
           onPointerDown={(e) => hoverAt(e.clientX, e.clientY)}
           onPointerLeave={() => { setHover(null); onHover?.(null); }}
+          tabIndex={0}
+          onKeyDown={onKey}
+          onFocus={() => { const p = geometry?.projection(keyCursor.current); if (p) hoverLocal(p[0], p[1]); }}
+          onBlur={() => { setHover(null); onHover?.(null); }}
         />
         {problem && (
           <p role="status" style={{ position: 'absolute', left: 0, right: 0, top: '45%', textAlign: 'center', margin: 0, fontWeight: 600 }}>
             {problem}
           </p>
+        )}
+        {hover && (
+          <span
+            aria-hidden="true"
+            style={{ position: 'absolute', left: hover.x - 6, top: hover.y - 6, width: 10, height: 10, border: '1.5px solid #fff', outline: '1px solid #000', borderRadius: 6, pointerEvents: 'none' }}
+          />
         )}
         {hover && (
           <div

@@ -92,7 +92,7 @@ export const OVERLAY_STYLE = {
 
 /** Diagonal hatching over the map's bounding box (the caller clips it to the band). */
 function hatch(ctx: Ctx2D, g: MapGeometry, u: number): void {
-  const gap = 7 * u;
+  const gap = 8 * u;
   const x0 = g.cx - g.rx, x1 = g.cx + g.rx, y0 = g.cy - g.ry, y1 = g.cy + g.ry;
   const h = y1 - y0;
   ctx.beginPath();
@@ -101,10 +101,10 @@ function hatch(ctx: Ctx2D, g: MapGeometry, u: number): void {
     ctx.lineTo(x + h, y0);
   }
   ctx.lineWidth = 2.2 * u;
-  ctx.strokeStyle = 'rgba(0, 0, 0, 0.22)';
+  ctx.strokeStyle = 'rgba(0, 0, 0, 0.17)';
   ctx.stroke();
   ctx.lineWidth = 1 * u;
-  ctx.strokeStyle = 'rgba(255, 255, 255, 0.5)';
+  ctx.strokeStyle = 'rgba(255, 255, 255, 0.42)';
   ctx.stroke();
 }
 
