@@ -86,7 +86,8 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
   const canvasRef = useRef<HTMLCanvasElement | null>(null);
   const barRef = useRef<HTMLCanvasElement | null>(null);
   const rasterCanvas = useRef<HTMLCanvasElement | null>(null);
-  const overlayCanvas = useRef<{ key: string; canvas: HTMLCanvasElement } | null>(null);
+  // A few drawn vector layers (one per recent frame/flip/size), so switching back and forth only composites.
+  const overlayCanvases = useRef<Map<string, HTMLCanvasElement>>(new Map());
   const drawCount = useRef(0);
   const [width, setWidth] = useState(0);
   const [hover, setHover] = useState<{ x: number; y: number; h: SkyHover } | null>(null);
@@ -130,24 +131,27 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     const bw = Math.round(width * dpr), bh = Math.round(height * dpr);
     // The vector layer changes only with size, frame, flip, band and beam marker: keep it drawn.
     const okey = overlayKey(geometry, result, view, u, dpr);
-    let oc = overlayCanvas.current;
-    if (!oc || oc.key !== okey) {
-      const c = oc?.canvas ?? document.createElement('canvas');
-      c.width = bw;
-      c.height = bh;
-      const octx = c.getContext('2d')!;
+    const layers = overlayCanvases.current;
+    let oc = layers.get(okey);
+    if (oc) {
+      layers.delete(okey);
+    } else {
+      oc = document.createElement('canvas');
+      oc.width = bw;
+      oc.height = bh;
+      const octx = oc.getContext('2d')!;
       octx.setTransform(dpr, 0, 0, dpr, 0, 0);
-      octx.clearRect(0, 0, width, height);
       drawOverlayLayer(octx, geometry, result, view, u);
-      oc = overlayCanvas.current = { key: okey, canvas: c };
     }
+    layers.set(okey, oc);
+    while (layers.size > 4) layers.delete(layers.keys().next().value!);
     if (canvas.width !== bw || canvas.height !== bh) { canvas.width = bw; canvas.height = bh; }
     const ctx = canvas.getContext('2d')!;
     ctx.setTransform(1, 0, 0, 1, 0, 0);
     ctx.clearRect(0, 0, bw, bh);
     ctx.imageSmoothingEnabled = false;
     ctx.drawImage(rc, 0, 0, bw, bh);
-    ctx.drawImage(oc.canvas, 0, 0);
+    ctx.drawImage(oc, 0, 0);
     drawCount.current += 1;
     canvas.dataset.drawCount = String(drawCount.current);
     canvas.dataset.drawnAt = String(performance.now());
