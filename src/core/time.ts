@@ -18,9 +18,13 @@ export function parseUtcMs(s: string): number | null {
   if (!m) return null;
   const [y, mo, d, h, mi, se] = [1, 2, 3, 4, 5, 6].map((i) => Number(m[i] ?? 0));
   if (mo < 1 || mo > 12 || d < 1 || d > 31 || h > 23 || mi > 59 || se > 59) return null;
-  const ms = Date.UTC(y, mo - 1, d, h, mi, se) + (m[7] ? Math.round(Number(m[7]) * 1000) : 0);
+  // setUTCFullYear, not Date.UTC: Date.UTC reads years 0..99 as 1900..1999.
+  const date = new Date(0);
+  date.setUTCFullYear(y, mo - 1, d);
+  date.setUTCHours(h, mi, se, 0);
+  const ms = date.getTime() + (m[7] ? Math.round(Number(m[7]) * 1000) : 0);
   const back = new Date(ms);
-  if (back.getUTCDate() !== d || back.getUTCMonth() !== mo - 1) return null; // e.g. 31 April
+  if (back.getUTCDate() !== d || back.getUTCMonth() !== mo - 1 || back.getUTCFullYear() !== y) return null; // e.g. 31 April
   return ms;
 }
 
