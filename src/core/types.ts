@@ -141,4 +141,6 @@ export interface PlanResult {
   summary: Summary;
   /** added: radiometer noise in kelvin per RING pixel, one map per frequency; NaN where the exposure is 0 */
   noise_maps?: Float32Array[];
+  /** added: 1 where the pixel centre came within FWHM/2 of the usable path (the sky_fraction_covered mask), per frequency */
+  covered?: Uint8Array[];
 }

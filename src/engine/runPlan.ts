@@ -159,6 +159,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   const nside = s.map.nside;
   const maps: Float32Array[] = [];
   const noiseMaps: Float32Array[] = [];
+  const coveredMasks: Uint8Array[] = [];
   const freqs: FrequencySummary[] = [];
   const sens = {
     bandwidth_mhz: s.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz,
@@ -171,6 +172,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     const map = await d.run('exposure', exposureStage(hit, beams[k], nside), lo, mid);
     const covered = await d.run('exposure', coveredStage(hit, beams[k].fwhmRad / 2, nside), mid, hi);
     maps.push(map);
+    coveredMasks.push(covered);
     const mhz = s.telescope.frequencies_mhz[k];
     const noise = sensitivityFor(mhz, map, covered, sens);
     noiseMaps.push(noise.noise);
@@ -198,7 +200,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   };
   d.check();
   d.report('summary', 1);
-  const result: PlanResult = { scenario: s, track, usable, maps, summary, noise_maps: noiseMaps };
+  const result: PlanResult = { scenario: s, track, usable, maps, summary, noise_maps: noiseMaps, covered: coveredMasks };
   internals.set(result, { hit });
   return result;
 }

@@ -41,6 +41,7 @@ export function transferableCopy(r: PlanResult): { copy: PlanResult; transfer: A
   }
   const copy: PlanResult = { scenario: r.scenario, track, usable: dup(r.usable), maps: r.maps.map(dup), summary: r.summary };
   if (r.noise_maps) copy.noise_maps = r.noise_maps.map(dup);
+  if (r.covered) copy.covered = r.covered.map(dup);
   return { copy, transfer };
 }
 

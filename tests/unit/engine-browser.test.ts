@@ -61,6 +61,8 @@ describe('browser engine (worker protocol)', () => {
     expect(r.summary).toEqual(direct.summary);
     expect(Array.from(r.maps[0])).toEqual(Array.from(direct.maps[0]));
     expect(r.track.zx).toBeInstanceOf(Float64Array);
+    expect(Array.from(r.covered![1])).toEqual(Array.from(direct.covered![1]));
+    expect(Array.from(r.noise_maps![0])).toEqual(Array.from(direct.noise_maps![0]));
     expect(progress.some(([s]) => s === 'exposure')).toBe(true);
     expect(FakeWorker.all[0].transferredBytes).toBeGreaterThan(r.track.n * 8 * 10);
     // the worker keeps its own copy and reuses it: a constraint change is served

@@ -35,6 +35,9 @@ describe('runPlan', () => {
       // Gaussian solid angle 1.1331 FWHM^2 (antenna theory texts)
       expect(sum * nside2pixareaSr(32)).toBeCloseTo(r.summary.hours.usable * 1.1331 * f * f, -Math.log10(0.01 * r.summary.hours.usable * 1.1331 * f * f));
       const fs = r.summary.frequencies[k];
+      let nCov = 0;
+      for (const v of r.covered![k]) nCov += v;
+      expect(nCov / r.covered![k].length).toBe(fs.sky_fraction_covered);
       expect(fs.mhz).toBe(s.telescope.frequencies_mhz[k]);
       expect(fs.sky_fraction_covered).toBeGreaterThan(0);
       expect(fs.exposure_max_h).toBeGreaterThanOrEqual(fs.exposure_median_h_covered);
