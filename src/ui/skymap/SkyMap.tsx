@@ -267,7 +267,8 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
             data-testid="sky-map-hover"
             style={{
               position: 'absolute',
-              top: Math.min(Math.max(0, hover.y + 14), Math.max(0, height - 40)),
+              top: hover.y < height * 0.55 ? hover.y + 14 : undefined,
+              bottom: hover.y < height * 0.55 ? undefined : height - hover.y + 14,
               left: tipLeft ? undefined : hover.x + 14,
               right: tipLeft ? width - hover.x + 14 : undefined,
               pointerEvents: 'none',

@@ -15,7 +15,7 @@ import {
   type ValueScale,
 } from './colour';
 import { coveredMasks, outlineColour, paintOutlines } from './coverageOutline';
-import { drawGraticuleLabels, drawOverlays, fontPx, haloText, type Ctx2D } from './overlays';
+import { drawCentreMarker, drawGraticuleLabels, drawOverlays, fontPx, haloText, type Ctx2D } from './overlays';
 import { frameAxisNames, makeMapGeometry, type LookupCache, type MapGeometry, type SkyFrame } from './skyProjection';
 
 // The parts of a sky-map figure shared by the on-screen map and the PNG export:
@@ -132,6 +132,7 @@ export function drawOverlayLayer(ctx: Ctx2D, g: MapGeometry, result: PlanResult,
     beam: view.beamAt ? { ...view.beamAt, radiusDeg: beamRadiusDeg(result, view.freqIndex) } : null,
   });
   drawGraticuleLabels(ctx, g, view.frame, u);
+  drawCentreMarker(ctx, g, view.frame, u);
 }
 
 /** What the vector layer depends on: when this key is unchanged, a cached layer can be reused. */

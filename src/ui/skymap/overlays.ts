@@ -223,35 +223,22 @@ export function drawOverlays(ctx: Ctx2D, g: MapGeometry, o: OverlayOptions): voi
   }
   ctx.restore();
 
-  // Galactic centre marker (outside the clip so the label is never cut).
-  if (o.showGalactic !== false) {
-    const p = g.projection(s.galacticCentre);
-    if (p) {
-      ctx.beginPath();
-      ctx.arc(p[0], p[1], 4 * u, 0, 2 * Math.PI);
-      ctx.fillStyle = st.centre;
-      ctx.fill();
-      ctx.lineWidth = 1.5 * u;
-      ctx.strokeStyle = '#000';
-      ctx.stroke();
-      ctx.font = fontPx(11 * u, 'bold');
-      haloText(ctx, 'GC', p[0] + 6 * u, p[1] - 7 * u, u, 'left', 'middle');
-    }
-  }
-
   // Outline of the sky.
   stroke(ctx, draw({ type: 'Sphere' }), st.outline, 1 * u);
 }
 
 /** Graticule labels: longitudes along the equator (inside), latitudes beside the left rim (outside). */
 export function drawGraticuleLabels(ctx: Ctx2D, g: MapGeometry, frame: SkyFrame, u: number): void {
+  // Leave the galactic centre's marker and label clear.
+  const gc = g.projection(overlayShapes(frame, 0, 0).galacticCentre);
+  const clear = (x: number, y: number) => !gc || Math.abs(x - (gc[0] + 12 * u)) > 30 * u || Math.abs(y - (gc[1] - 4 * u)) > 14 * u;
   const font = Math.max(9, 11 * u);
   ctx.font = fontPx(font);
   // Fewer longitude labels when the map is narrow, so they never touch.
   const step = g.rx * 2 < 520 * u ? 60 : 30;
   for (let lon = -180 + step; lon < 180; lon += step) {
     const p = g.projection([lon, 0]);
-    if (!p) continue;
+    if (!p || !clear(p[0], p[1] + font * 0.85)) continue;
     haloText(ctx, lonLabel(frame, lon), p[0], p[1] + font * 0.85, u, 'center', 'middle');
   }
   for (const lat of [-60, -30, 0, 30, 60]) {
@@ -260,4 +247,21 @@ export function drawGraticuleLabels(ctx: Ctx2D, g: MapGeometry, frame: SkyFrame,
     if (!pLeft) continue;
     haloText(ctx, latLabel(lat), pLeft[0] - 4 * u, pLeft[1], u, 'right', 'middle');
   }
+}
+
+/** The galactic centre marker and its label, drawn last so no graticule label covers it. */
+export function drawCentreMarker(ctx: Ctx2D, g: MapGeometry, frame: SkyFrame, u: number): void {
+  const st = OVERLAY_STYLE;
+  const s = overlayShapes(frame, 0, 0);
+  const p = g.projection(s.galacticCentre);
+  if (!p) return;
+  ctx.beginPath();
+  ctx.arc(p[0], p[1], 4 * u, 0, 2 * Math.PI);
+  ctx.fillStyle = st.centre;
+  ctx.fill();
+  ctx.lineWidth = 1.5 * u;
+  ctx.strokeStyle = '#000';
+  ctx.stroke();
+  ctx.font = fontPx(11 * u, 'bold');
+  haloText(ctx, 'GC', p[0] + 6 * u, p[1] - 8 * u, u, 'left', 'middle');
 }
