@@ -15,4 +15,14 @@ export const COMMANDS: Record<string, Command> = {
     usage: 'swathe plan SCENARIO.json --out DIR',
     run: async (argv, io) => (await import('./plan')).planCommand(argv, io),
   },
+  survey: {
+    summary: 'figures of every site of a grid over the body (one CSV row per site; shards)',
+    usage: 'swathe survey SCENARIO.json --step-deg S --out DIR',
+    run: async (argv, io) => (await import('./survey')).surveyCommand(argv, io),
+  },
+  merge: {
+    summary: 'join survey shards into the unsharded survey file',
+    usage: 'swathe merge DIR_OR_FILES... --out FILE',
+    run: async (argv, io) => (await import('./merge')).mergeCommand(argv, io),
+  },
 };
