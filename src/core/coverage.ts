@@ -134,27 +134,55 @@ const PAGE = 1 << PAGE_BITS;
  * the track as a continuous path (sub-steps of at most SUBSTEP_PER_PIXEL
  * pixels between consecutive zeniths, however long the sample step).
  */
-export function* hitMapStage(track: Track, usable: Uint8Array, opts: { nside: number; stepPerPixel?: number }): Stage<HitMap> {
-  const nside = opts.nside;
+/** Memory the fine hit map's pages may take before it falls back to a coarser grid. */
+export const HIT_PAGES_MAX_BYTES = 192 * 1024 * 1024;
+
+class PageBudgetExceeded extends Error {}
+
+export function* hitMapStage(
+  track: Track,
+  usable: Uint8Array,
+  opts: { nside: number; stepPerPixel?: number; maxBytes?: number },
+): Stage<HitMap> {
+  let nside = opts.nside;
   if (!Number.isInteger(Math.log2(nside)) || nside < 1 || nside > MAX_HIT_NSIDE) {
     throw new RangeError(`hit map nside must be a power of two between 1 and ${MAX_HIT_NSIDE}, got ${nside}`);
   }
   if (usable.length !== track.n) throw new RangeError(`usable mask has ${usable.length} entries, track has ${track.n}`);
+  const maxPages = Math.max(1, Math.floor((opts.maxBytes ?? HIT_PAGES_MAX_BYTES) / (32 * PAGE)));
   // Paged accumulator: a track touches a thin band of a fine grid, and NESTED
-  // indices of nearby pixels are close, so pages of 1024 pixels stay few.
-  const pages: (Float64Array | undefined)[] = new Array(Math.ceil(nside2npix(nside) / PAGE));
-  const maxStep = nside2resolRad(nside) * (opts.stepPerPixel ?? SUBSTEP_PER_PIXEL);
-  yield* walkPath(track, usable, maxStep, (x, y, z, h) => {
-    const p = vec2pixNest(nside, x, y, z);
-    const pi = p >>> PAGE_BITS;
-    let page = pages[pi];
-    if (page === undefined) pages[pi] = page = new Float64Array(4 * PAGE);
-    const o = (p & (PAGE - 1)) * 4;
-    page[o] += h;
-    page[o + 1] += h * x;
-    page[o + 2] += h * y;
-    page[o + 3] += h * z;
-  });
+  // indices of nearby pixels are close, so pages of 1024 pixels stay few. A
+  // path that sweeps a wide area of a very fine grid would need too many: then
+  // the walk starts again on a grid twice as coarse (narrow beams over long
+  // spans only; the exposure's own resolution is rarely affected).
+  let pages: (Float64Array | undefined)[];
+  for (;;) {
+    pages = new Array(Math.ceil(nside2npix(nside) / PAGE));
+    let used = 0;
+    const maxStep = nside2resolRad(nside) * (opts.stepPerPixel ?? SUBSTEP_PER_PIXEL);
+    const grid = nside;
+    const pg = pages;
+    try {
+      yield* walkPath(track, usable, maxStep, (x, y, z, h) => {
+        const p = vec2pixNest(grid, x, y, z);
+        const pi = p >>> PAGE_BITS;
+        let page = pg[pi];
+        if (page === undefined) {
+          if (++used > maxPages) throw new PageBudgetExceeded();
+          pg[pi] = page = new Float64Array(4 * PAGE);
+        }
+        const o = (p & (PAGE - 1)) * 4;
+        page[o] += h;
+        page[o + 1] += h * x;
+        page[o + 2] += h * y;
+        page[o + 3] += h * z;
+      });
+      break;
+    } catch (e) {
+      if (!(e instanceof PageBudgetExceeded) || nside === 1) throw e;
+      nside /= 2;
+    }
+  }
   let count = 0;
   for (const page of pages) {
     if (page === undefined) continue;
@@ -478,7 +506,7 @@ export function naiveExposure(
   return drain(naiveExposureStage(track, usable, beam, nside, opts));
 }
 
-export function hitMap(track: Track, usable: Uint8Array, opts: { nside: number; stepPerPixel?: number }): HitMap {
+export function hitMap(track: Track, usable: Uint8Array, opts: { nside: number; stepPerPixel?: number; maxBytes?: number }): HitMap {
   return drain(hitMapStage(track, usable, opts));
 }
 

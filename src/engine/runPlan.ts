@@ -44,6 +44,8 @@ export class CancelledError extends Error {
 /** What a result keeps beside its public fields for the next run's reuse (never exported). */
 interface Internals {
   hit: HitMap;
+  /** the nside the hit map was asked for (it may be coarser if it hit its memory budget) */
+  hitRequested: number;
 }
 const internals = new WeakMap<PlanResult, Internals>();
 
@@ -151,8 +153,8 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   const fwhmMin = Math.min(...beams.map((b) => b.fwhmRad));
   const needNside = hitNsideFor(fwhmMin);
   d.report('hits', 0);
-  const prevHit = keepUsable ? internals.get(prev!)?.hit : undefined;
-  const hit = prevHit && prevHit.nside === needNside ? prevHit : await d.run('hits', hitMapStage(track, usable, { nside: needNside }));
+  const prevInt = keepUsable ? internals.get(prev!) : undefined;
+  const hit = prevInt && prevInt.hitRequested === needNside ? prevInt.hit : await d.run('hits', hitMapStage(track, usable, { nside: needNside }));
   d.report('hits', 1);
 
   // Exposure and covered sky per frequency
@@ -201,6 +203,6 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   d.check();
   d.report('summary', 1);
   const result: PlanResult = { scenario: s, track, usable, maps, summary, noise_maps: noiseMaps, covered: coveredMasks };
-  internals.set(result, { hit });
+  internals.set(result, { hit, hitRequested: needNside });
   return result;
 }

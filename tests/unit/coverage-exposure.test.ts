@@ -217,3 +217,16 @@ describe('large output nside (centres computed per disc range instead of a table
     expect(wrong).toBe(0);
   });
 });
+
+describe('hit map memory budget', () => {
+  it('falls back to a coarser grid when the fine pages would exceed the budget, keeping every hour', () => {
+    const t = smallCircleTrack({ decDeg: -35, rateDegPerH: 0.55, stepMin: 20, spanH: 24 * 30, wobbleDeg: 1.5, wobblePeriodH: 24 * 9 });
+    const u = blockMask(t.n, 40, 25);
+    const full = hitMap(t, u, { nside: 1024 });
+    const small = hitMap(t, u, { nside: 1024, maxBytes: 32 * 1024 * 40 }); // room for 40 pages
+    expect(full.nside).toBe(1024);
+    expect(small.nside).toBeLessThan(1024);
+    expect(small.totalHours).toBeCloseTo(full.totalHours, 9);
+    expect(Math.ceil(small.pix.length / 1024)).toBeLessThanOrEqual(40);
+  });
+});
