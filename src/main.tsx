@@ -1,8 +1,33 @@
+import { StrictMode, Component, type ReactNode } from 'react';
 import { createRoot } from 'react-dom/client';
+import { App } from './ui/App';
+import './ui/styles.css';
 
-// Placeholder until the planner UI lands (issue: browser planner).
-function App() {
-  return <main><h1>Swathe</h1><p>Sky coverage planner for fixed zenith-pointing telescopes.</p></main>;
+// Last line of defence: a render error shows a message and a way back to the demo, never a blank page.
+class Guard extends Component<{ children: ReactNode }, { error: Error | null }> {
+  override state = { error: null as Error | null };
+  static getDerivedStateFromError(error: Error) {
+    return { error };
+  }
+  override render() {
+    if (!this.state.error) return this.props.children;
+    return (
+      <main className="crash" role="alert">
+        <h1>Swathe hit a problem</h1>
+        <p>{this.state.error.message}</p>
+        <p>
+          <button type="button" onClick={() => { window.location.search = ''; }}>Open the demo scenario</button>{' '}
+          <button type="button" onClick={() => window.location.reload()}>Reload</button>
+        </p>
+      </main>
+    );
+  }
 }
 
-createRoot(document.getElementById('root')!).render(<App />);
+createRoot(document.getElementById('root')!).render(
+  <StrictMode>
+    <Guard>
+      <App />
+    </Guard>
+  </StrictMode>,
+);

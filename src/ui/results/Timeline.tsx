@@ -119,7 +119,9 @@ export function Timeline({ result, scrubMs, markers }: { result: PlanResult; scr
     for (const tk of dateTicks(t.t0_ms, t.end_ms, pw)) {
       const x = PAD.l + ((tk - t.t0_ms) / span) * pw;
       g.beginPath(); g.moveTo(x, PAD.t + ph); g.lineTo(x, PAD.t + ph + 4); g.stroke();
-      g.fillText(utcDay(tk), x, PAD.t + ph + 6);
+      // keep the date labels inside the canvas
+      const half = g.measureText(utcDay(tk)).width / 2;
+      g.fillText(utcDay(tk), Math.min(Math.max(x, half + 2), width - half - 2), PAD.t + ph + 6);
     }
 
     const envelope = (mn: Float32Array, mx: Float32Array, colour: string) => {

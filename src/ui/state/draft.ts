@@ -56,7 +56,7 @@ export function mhzFromZ(z: number): number {
 }
 
 export function zText(mhz: number): string {
-  return Number.isFinite(mhz) && mhz > 0 ? String(Number(zFromMhz(mhz).toFixed(3))) : '';
+  return Number.isFinite(mhz) && mhz > 0 ? String(Number(zFromMhz(mhz).toFixed(2))) : '';
 }
 
 export function scenarioToDraft(s: Scenario): Draft {

@@ -1,0 +1,201 @@
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import type { PlanResult, Scenario } from '../core/types';
+import { parseScenario, parseScenarioJson, scenarioToJson } from '../core/scenario';
+import { estimateRun, describeEstimate } from '../core/limits';
+import { SkyMap } from './skymap/SkyMap';
+import type { SkyFrame, SkyScale } from './skymap/SkyMap';
+import { ScenarioPanel } from './panel/ScenarioPanel';
+import { ResultsTable } from './results/ResultsTable';
+import { Timeline } from './results/Timeline';
+import { ExportBar } from './exports/ExportBar';
+import { GlobePane } from './GlobePane';
+import { RunBar } from './RunBar';
+import { ViewControls } from './ViewControls';
+import { IssueIndex, draftToCandidate, scenarioToDraft, type Draft } from './state/draft';
+import { loadStartup, saveScenario } from './state/persist';
+import { useEngine } from './state/useEngine';
+import { downloadText, fileStem } from './exports/download';
+import { PLANNING_NOTE, bodyLabel, latLabel, lonLabel } from './caption';
+import { useWidth } from './useWidth';
+
+// The planner shell: scenario draft -> validated scenario -> worker run ->
+// result views. The last good result stays on screen whatever the draft holds.
+
+/** Runs estimated to take longer than this wait for the Compute button. */
+export const AUTO_RUN_MAX_S = 8;
+const DEBOUNCE_MS = 350;
+
+export function App() {
+  const startup = useMemo(() => loadStartup(), []);
+  const [draft, setDraft] = useState<Draft>(() => scenarioToDraft(startup.scenario));
+  const [notices, setNotices] = useState<string[]>(startup.notice ? [startup.notice] : []);
+  const [auto, setAuto] = useState(true);
+  const engine = useEngine();
+  const [freqIndex, setFreqIndex] = useState(0);
+  const [frame, setFrame] = useState<SkyFrame>('equatorial');
+  const [scale, setScale] = useState<SkyScale>('linear');
+  const [flip, setFlip] = useState(false);
+  const [compare, setCompare] = useState(false);
+  const [mapRef, mapWidth] = useWidth<HTMLDivElement>(900);
+  const importRef = useRef<HTMLInputElement>(null);
+
+  const parsed = useMemo(() => parseScenario(draftToCandidate(draft)), [draft]);
+  const scenario: Scenario | null = parsed.ok ? parsed.scenario : null;
+  const estimate = useMemo(() => (scenario ? estimateRun(scenario) : null), [scenario]);
+  const issues = useMemo(
+    () => new IssueIndex([...(parsed.ok ? [] : parsed.issues), ...(estimate?.problems ?? [])]),
+    [parsed, estimate],
+  );
+  const runnable = scenario !== null && estimate !== null && estimate.problems.length === 0;
+  const key = runnable ? scenarioToJson(scenario) : null;
+
+  const result: PlanResult | null = engine.result;
+  const resultKey = useMemo(() => (result ? scenarioToJson(result.scenario) : null), [result]);
+  const requested = useRef<string | null>(null);
+
+  const start = useCallback((s: Scenario) => {
+    requested.current = scenarioToJson(s);
+    engine.run(s);
+  }, [engine]);
+
+  // The startup scenario is computed on open, whatever its size.
+  useEffect(() => {
+    if (runnable && requested.current === null) start(scenario!);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+
+  // Later edits: save once valid; recompute automatically when the run is short.
+  useEffect(() => {
+    if (!runnable || key === null) return;
+    const t = setTimeout(() => {
+      const n = saveScenario(scenario!);
+      if (n) setNotices((p) => (p.includes(n) ? p : [...p, n]));
+      if (auto && key !== requested.current && key !== resultKey && estimate!.seconds_estimate <= AUTO_RUN_MAX_S) start(scenario!);
+    }, DEBOUNCE_MS);
+    return () => clearTimeout(t);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [key, auto]);
+
+  const patch = useCallback((p: Partial<Draft>) => setDraft((d) => ({ ...d, ...p })), []);
+
+  const nFreq = result ? result.maps.length : 0;
+  const fi = Math.min(freqIndex, Math.max(0, nFreq - 1));
+  const stale = result !== null && key !== null && key !== resultKey;
+
+  const importFile = async (file: File) => {
+    let text: string;
+    try {
+      text = await file.text();
+    } catch (e) {
+      setNotices((p) => [...p, `Could not read ${file.name}: ${String(e)}`]);
+      return;
+    }
+    const r = parseScenarioJson(text);
+    if (!r.ok) {
+      setNotices((p) => [...p, `${file.name} was not imported; your current scenario is unchanged. ${r.issues.slice(0, 5).map((i) => i.message).join(' ')}`]);
+      return;
+    }
+    setDraft(scenarioToDraft(r.scenario));
+    setFreqIndex(0);
+    start(r.scenario);
+  };
+
+  return (
+    <div className="app">
+      <header className="top">
+        <div className="brand">
+          <span className="wordmark">Swathe</span>
+          <span className="tagline">sky coverage of a fixed zenith-pointing telescope</span>
+        </div>
+        <div className="top-actions">
+          <button type="button" onClick={() => importRef.current?.click()}>Import scenario JSON</button>
+          <input ref={importRef} type="file" accept=".json,application/json" className="hidden-file" tabIndex={-1}
+            aria-label="Scenario JSON file"
+            onChange={(e) => { const f = e.target.files?.[0]; if (f) void importFile(f); e.target.value = ''; }} />
+          <button type="button" disabled={!scenario}
+            onClick={() => scenario && downloadText(scenarioToJson(scenario), `${fileStem(scenario.name)}.scenario.json`, 'application/json')}>
+            Export scenario JSON
+          </button>
+        </div>
+      </header>
+      {notices.length > 0 && (
+        <div className="notices" role="status" data-testid="notices">
+          {notices.map((n, i) => (
+            <p key={i} className="notice">
+              <span>{n}</span>
+              <button type="button" className="icon" aria-label="Dismiss notice" onClick={() => setNotices((p) => p.filter((_, j) => j !== i))}>×</button>
+            </p>
+          ))}
+        </div>
+      )}
+      <div className="layout">
+        <aside className="side" aria-labelledby="scenario-head">
+          <h2 id="scenario-head">Scenario</h2>
+          <ScenarioPanel draft={draft} issues={issues} onChange={patch} />
+        </aside>
+        <main className="main">
+          <RunBar
+            engine={engine}
+            estimateText={estimate && runnable ? describeEstimate(estimate) : null}
+            invalid={!runnable}
+            issueCount={issues.size}
+            stale={stale}
+            auto={auto}
+            onAuto={setAuto}
+            onCompute={() => scenario && runnable && start(scenario)}
+            longRun={estimate !== null && estimate.seconds_estimate > AUTO_RUN_MAX_S}
+          />
+          {result ? (
+            <>
+              <section className="view" aria-label="Sky map and site">
+                <div className="map-col">
+                  <h2 className="result-title" data-testid="result-title">
+                    <span>{result.scenario.name || 'Untitled scenario'}</span>
+                    <span className="sub">
+                      {bodyLabel(result.scenario.site.body)} {latLabel(result.scenario.site.lat_deg)}, {lonLabel(result.scenario.site.lon_deg)} ·{' '}
+                      {result.scenario.span.start.slice(0, 10)} to {result.scenario.span.end.slice(0, 10)} · {result.scenario.telescope.aperture_m} m
+                    </span>
+                  </h2>
+                  <ViewControls
+                    freqs={result.scenario.telescope.frequencies_mhz}
+                    freqIndex={fi} onFreq={setFreqIndex}
+                    frame={frame} onFrame={setFrame}
+                    scale={scale} onScale={setScale}
+                    flip={flip} onFlip={setFlip}
+                    compare={compare} onCompare={setCompare}
+                  />
+                  <div className="map-box" ref={mapRef}>
+                    <SkyMap result={result} freqIndex={fi} frame={frame} scale={scale} flipLongitude={flip} compare={compare} />
+                  </div>
+                </div>
+                <div className="globe-col">
+                  <GlobePane draft={draft} scenario={scenario ?? result.scenario} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
+                </div>
+              </section>
+              <ExportBar result={result} view={{ freqIndex: fi, frame, scale, flipLongitude: flip, compare }} mapWidth={mapWidth} />
+              <section className="results-sec" aria-labelledby="results-head">
+                <h2 id="results-head">Results</h2>
+                <ResultsTable result={result} selected={fi} onSelect={setFreqIndex} />
+                <Timeline result={result} />
+              </section>
+            </>
+          ) : (
+            <section className="placeholder" aria-live="polite">
+              {engine.running ? <p>Computing the first map…</p> : <p>No result yet. {runnable ? 'Press Compute.' : 'Fix the marked fields in the scenario panel.'}</p>}
+              <div className="globe-col solo">
+                <GlobePane draft={draft} scenario={scenario} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
+              </div>
+            </section>
+          )}
+          <footer className="foot">
+            <p><strong>{PLANNING_NOTE}</strong></p>
+            <p>
+              Models: IAU rotation models via astronomy-engine; zenith track sampled over the span; HEALPix RING maps in J2000;
+              {' '}Gaussian (FWHM = k λ/D) or Airy beams; exposure is usable time weighted by beam power, in hours.
+            </p>
+          </footer>
+        </main>
+      </div>
+    </div>
+  );
+}

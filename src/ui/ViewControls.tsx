@@ -1,0 +1,47 @@
+import type { SkyFrame, SkyScale } from './skymap/SkyMap';
+import { sig } from './format';
+
+// How the computed maps are shown: none of these recompute anything.
+
+export function ViewControls(p: {
+  freqs: number[];
+  freqIndex: number; onFreq: (i: number) => void;
+  frame: SkyFrame; onFrame: (f: SkyFrame) => void;
+  scale: SkyScale; onScale: (s: SkyScale) => void;
+  flip: boolean; onFlip: (v: boolean) => void;
+  compare: boolean; onCompare: (v: boolean) => void;
+}) {
+  return (
+    <div className="view-controls">
+      <div className="seg" role="radiogroup" aria-label="Frequency shown">
+        {p.freqs.map((f, i) => (
+          <label key={i} className={i === p.freqIndex ? 'on' : undefined}>
+            <input type="radio" name="freq" checked={i === p.freqIndex} onChange={() => p.onFreq(i)} disabled={p.compare} />
+            {sig(f, 6)} MHz
+          </label>
+        ))}
+      </div>
+      <label>
+        Frame{' '}
+        <select value={p.frame} onChange={(e) => p.onFrame(e.target.value as SkyFrame)} aria-label="Frame">
+          <option value="equatorial">Equatorial (RA, Dec)</option>
+          <option value="galactic">Galactic (l, b)</option>
+          <option value="ecliptic">Ecliptic (λ, β)</option>
+        </select>
+      </label>
+      <label>
+        Scale{' '}
+        <select value={p.scale} onChange={(e) => p.onScale(e.target.value as SkyScale)} aria-label="Colour scale">
+          <option value="linear">Linear</option>
+          <option value="log">Logarithmic</option>
+        </select>
+      </label>
+      <label className="check" title="Astronomical convention is longitude increasing to the left">
+        <input type="checkbox" checked={p.flip} onChange={(e) => p.onFlip(e.target.checked)} /> Longitude increasing to the right
+      </label>
+      <label className="check">
+        <input type="checkbox" checked={p.compare} onChange={(e) => p.onCompare(e.target.checked)} /> Compare all frequencies
+      </label>
+    </div>
+  );
+}

@@ -1,0 +1,67 @@
+import { useState } from 'react';
+import type { PlanResult } from '../../core/types';
+import { coverageCsv, trackCsv } from '../../core/export/csv';
+import { coverageFits } from '../../core/export/fits';
+import { summaryJson } from '../../core/export/summary';
+import { renderSkyMapPng } from '../skymap/exportPng';
+import type { SkyFrame, SkyScale } from '../skymap/SkyMap';
+import { scenarioCaption } from '../caption';
+import { downloadBlob, downloadText, fileStem } from './download';
+
+// One button per file; each builds its file from the result on screen.
+
+export interface ViewState { freqIndex: number; frame: SkyFrame; scale: SkyScale; flipLongitude: boolean; compare: boolean }
+
+export function ExportBar({ result, view, mapWidth }: { result: PlanResult; view: ViewState; mapWidth: number }) {
+  const [busy, setBusy] = useState<string | null>(null);
+  const [msg, setMsg] = useState<string | null>(null);
+  const stem = fileStem(result.scenario.name);
+  const f = result.scenario.telescope.frequencies_mhz[view.freqIndex];
+
+  const act = (what: string, fn: () => Promise<void> | void) => async () => {
+    setBusy(what);
+    setMsg(null);
+    try {
+      await fn();
+    } catch (e) {
+      setMsg(`${what} failed: ${e instanceof Error ? e.message : String(e)}`);
+    } finally {
+      setBusy(null);
+    }
+  };
+
+  const buttons: { label: string; desc: string; run: () => Promise<void> | void }[] = [
+    {
+      label: 'Download PNG',
+      desc: `sky map figure at ${f} MHz with colour bar, legend and caption`,
+      run: async () => {
+        const widthPx = Math.max(1600, Math.round(2 * mapWidth));
+        const title = `${result.scenario.name || 'Swathe scenario'} — ${view.compare ? 'half-power tracks of all frequencies' : `exposure at ${f} MHz`}`;
+        const blob = await renderSkyMapPng(result, { ...view, widthPx, title, caption: scenarioCaption(result.scenario, view.freqIndex) });
+        downloadBlob(blob, `${stem}-${view.compare ? 'compare' : `${f}mhz`}-${view.frame}.png`);
+      },
+    },
+    { label: 'Download CSV', desc: 'coverage.csv: exposure per HEALPix pixel, every frequency', run: () => downloadText(coverageCsv(result), `${stem}-coverage.csv`, 'text/csv') },
+    { label: 'Download track CSV', desc: 'track.csv: zenith, Sun and Earth per sample', run: () => downloadText(trackCsv(result), `${stem}-track.csv`, 'text/csv') },
+    {
+      label: 'Download FITS',
+      desc: 'coverage.fits: HEALPix binary table, one column per frequency',
+      run: () => {
+        const bytes = coverageFits(result);
+        downloadBlob(new Blob([bytes as BlobPart], { type: 'application/fits' }), `${stem}-coverage.fits`);
+      },
+    },
+    { label: 'Download summary JSON', desc: 'summary.json: the figures in the table', run: () => downloadText(summaryJson(result.summary), `${stem}-summary.json`, 'application/json') },
+  ];
+
+  return (
+    <section className="exports" aria-label="Downloads">
+      {buttons.map((b) => (
+        <button key={b.label} type="button" onClick={act(b.label, b.run)} disabled={busy !== null} title={b.desc}>
+          {busy === b.label ? `${b.label}…` : b.label}
+        </button>
+      ))}
+      {msg && <span className="error" role="alert">{msg}</span>}
+    </section>
+  );
+}
