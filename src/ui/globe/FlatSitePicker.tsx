@@ -1,6 +1,6 @@
 import { useEffect, useRef, type JSX } from 'react';
 import type { BodyName } from '../../core/types';
-import { BODY_COLOURS, BODY_NAMES, cssRgb, roundPick, shadingAt, shadingColour, type ShadingGrid } from './globeMath';
+import { BODY_COLOURS, BODY_ARTICLED, cssRgb, roundPick, shadingAt, shadingColour, type ShadingGrid } from './globeMath';
 
 // The fallback when WebGL is off: the body as a flat latitude/longitude map
 // (east to the right), with the same grid, shading and site marker; a click picks.
@@ -100,7 +100,7 @@ export function FlatSitePicker(props: {
       ref={ref}
       data-testid="site-flat-map"
       role="img"
-      aria-label={`Flat map of the ${BODY_NAMES[body]}: click to move the site (now ${lat_deg.toFixed(2)}°, ${lon_deg.toFixed(2)}°)`}
+      aria-label={`Flat map of ${BODY_ARTICLED[body]}: click to move the site (now ${lat_deg.toFixed(2)}°, ${lon_deg.toFixed(2)}°)`}
       style={{ width: w, height: h, display: 'block', cursor: 'crosshair', background: cssRgb(BODY_COLOURS[body]) }}
       onClick={(e) => {
         const r = e.currentTarget.getBoundingClientRect();

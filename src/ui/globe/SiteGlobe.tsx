@@ -5,7 +5,7 @@ import type { BodyName } from '../../core/types';
 import {
   BODY_COLOURS,
   bodyFixedToScene,
-  BODY_NAMES,
+  BODY_ARTICLED,
   cssRgb,
   latLonToScene,
   roundPick,
@@ -124,6 +124,10 @@ function gridLines(): THREE.Group {
   return g;
 }
 
+function srgbToLinear(c: number): number {
+  return c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4;
+}
+
 /** Per-vertex surface colours: the body colour, or the Earth-visibility shading for the Moon. */
 function paintSurface(geo: THREE.BufferGeometry, body: BodyName, shading: GlobeShading | null): void {
   const pos = geo.getAttribute('position') as THREE.BufferAttribute;
@@ -135,9 +139,10 @@ function paintSurface(geo: THREE.BufferGeometry, body: BodyName, shading: GlobeS
       const [lat, lon] = sceneToLatLon([pos.getX(i), pos.getY(i), pos.getZ(i)]);
       c = shadingColour(shadingAt(shading, lat, lon));
     }
-    colours[3 * i] = c[0];
-    colours[3 * i + 1] = c[1];
-    colours[3 * i + 2] = c[2];
+    // Our colours are sRGB (as in the CSS legend); three.js shades in linear light.
+    colours[3 * i] = srgbToLinear(c[0]);
+    colours[3 * i + 1] = srgbToLinear(c[1]);
+    colours[3 * i + 2] = srgbToLinear(c[2]);
   }
   geo.setAttribute('color', new THREE.BufferAttribute(colours, 3));
   (geo.getAttribute('color') as THREE.BufferAttribute).needsUpdate = true;
@@ -163,18 +168,38 @@ function faceLabels(scene: THREE.Scene, camera: THREE.PerspectiveCamera): void {
   const view = camera.position.clone().normalize();
   const right = new THREE.Vector3(1, 0, 0).applyQuaternion(camera.quaternion);
   const up = new THREE.Vector3(0, 1, 0).applyQuaternion(camera.quaternion);
-  scene.traverse((o) => {
-    if (!(o instanceof THREE.Sprite)) return;
-    if (o.userData.gridLabel) o.visible = o.position.clone().normalize().dot(view) > 0.3;
-    else if (o.userData.arrowLabel) {
-      const p = o.position;
-      o.center.set(p.dot(right) > 0 ? 1 : 0, p.dot(up) > 0 ? 1.1 : -0.1);
-      // Hidden only when the tip is behind the globe's disc as seen from the camera.
-      const along = p.dot(view);
-      const perp = p.clone().sub(view.clone().multiplyScalar(along)).length();
-      o.visible = !(along < 0 && perp < 1.05);
+  // Grid labels also make way for the site marker (by angle) and the arrows' labels (on screen).
+  const avoid = (scene.userData.avoid as THREE.Vector3[] | undefined) ?? [];
+  const cosClear = Math.cos((14 * Math.PI) / 180);
+  const sprites: THREE.Sprite[] = [];
+  scene.traverse((o) => { if (o instanceof THREE.Sprite) sprites.push(o); });
+  const arrowNdc: THREE.Vector3[] = [];
+  for (const o of sprites) {
+    if (!o.userData.arrowLabel) continue;
+    const p = o.getWorldPosition(new THREE.Vector3());
+    o.center.set(p.dot(right) > 0 ? 1 : 0, p.dot(up) > 0 ? 1.1 : -0.1);
+    // Hidden only when the tip is behind the globe's disc as seen from the camera.
+    const along = p.dot(view);
+    const perp = p.clone().sub(view.clone().multiplyScalar(along)).length();
+    o.visible = !(along < 0 && perp < 1.05);
+    if (o.visible) {
+      const ndc = p.clone().project(camera);
+      // Centre of the label box: it extends from the anchor away from the tip.
+      ndc.x += p.dot(right) > 0 ? -0.1 : 0.1;
+      ndc.y += p.dot(up) > 0 ? -0.05 : 0.05;
+      arrowNdc.push(ndc);
     }
-  });
+  }
+  for (const o of sprites) {
+    if (!o.userData.gridLabel) continue;
+    const n = o.position.clone().normalize();
+    let vis = n.dot(view) > 0.3 && avoid.every((a) => n.dot(a) < cosClear);
+    if (vis && arrowNdc.length) {
+      const q = o.getWorldPosition(new THREE.Vector3()).project(camera);
+      vis = arrowNdc.every((a) => Math.abs(a.x - q.x) > 0.2 || Math.abs(a.y - q.y) > 0.1);
+    }
+    o.visible = vis;
+  }
 }
 
 interface Scene3 {
@@ -197,8 +222,8 @@ function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
   const camera = new THREE.PerspectiveCamera(30, 1, 0.1, 100);
   camera.position.set(0, 0, CAMERA_DISTANCE);
   // Even light from the viewer's side (a headlight) so no part of the view is hidden in shadow.
-  scene.add(new THREE.AmbientLight(0xffffff, 1.3));
-  const head = new THREE.DirectionalLight(0xffffff, 1.6);
+  scene.add(new THREE.AmbientLight(0xffffff, 1.0));
+  const head = new THREE.DirectionalLight(0xffffff, 1.35);
   camera.add(head);
   head.position.set(0.4, 0.6, 1);
   scene.add(camera);
@@ -264,6 +289,11 @@ function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
   return { renderer, scene, camera, controls, surface, site, arrows, render, dispose };
 }
 
+function updateAvoid(s: Scene3): void {
+  const u = s.scene.userData;
+  u.avoid = [...(u.siteDir ? [u.siteDir] : []), ...((u.arrowDirs as THREE.Vector3[] | undefined) ?? [])];
+}
+
 /** Points the camera at (lat, lon) from its current distance, north up. */
 function faceSite(s: Scene3, lat: number, lon: number): void {
   const dist = s.camera.position.length() || CAMERA_DISTANCE;
@@ -299,7 +329,7 @@ function ArrowLegend({ body, sun, earth }: { body: BodyName; sun: boolean; earth
   );
   return (
     <div style={{ font: '12px/1.4 system-ui, sans-serif', display: 'flex', columnGap: 12, rowGap: 2, flexWrap: 'wrap', marginTop: 4 }}>
-      {item('#e8112d', `Site on the ${BODY_NAMES[body]} (arrow: zenith)`)}
+      {item('#e8112d', `Site on ${BODY_ARTICLED[body]} (arrow: zenith)`)}
       {sun && item('#ffb000', 'Direction of the Sun')}
       {earth && item('#3d8bff', 'Direction of the Earth')}
     </div>
@@ -437,6 +467,8 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
     const p = v3(latLonToScene(lat_deg, lon_deg, 1.0));
     s.site.position.copy(p);
     s.site.lookAt(p.clone().multiplyScalar(2));
+    s.scene.userData.siteDir = p.clone().normalize();
+    updateAvoid(s);
     const lp = lastPick.current;
     const fromPick = lp && Math.abs(lp[0] - lat_deg) < 1e-9 && Math.abs(lp[1] - lon_deg) < 1e-9;
     if (!fromPick) faceSite(s, lat_deg, lon_deg);
@@ -458,6 +490,8 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
       });
     }
     const ok = (d: unknown): d is V3 => Array.isArray(d) && d.length === 3 && d.every(Number.isFinite) && Math.hypot(...(d as V3)) > 0;
+    s.scene.userData.arrowDirs = [sunDir, body === 'moon' ? earthDir : null].filter(ok).map((d) => v3(bodyFixedToScene(d)).normalize());
+    updateAvoid(s);
     if (ok(sunDir)) s.arrows.add(directionArrow(bodyFixedToScene(sunDir), SUN_COLOUR, 'Sun', '#ffc640'));
     if (body === 'moon' && ok(earthDir)) s.arrows.add(directionArrow(bodyFixedToScene(earthDir), EARTH_ARROW_COLOUR, 'Earth', '#7fb2ff'));
     s.render();
@@ -467,7 +501,7 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
   return (
     <div ref={boxRef} data-testid="site-globe" style={{ width: '100%', minWidth: 0 }}>
       {fallback ? (
-        <div role="group" aria-label={`Site picker for the ${BODY_NAMES[body]} (flat map)`}>
+        <div role="group" aria-label={`Site picker for ${BODY_ARTICLED[body]} (flat map)`}>
           <p role="status" style={{ margin: '0 0 4px', font: '13px system-ui, sans-serif' }}>
             3D globe unavailable: {glError}. Showing a flat latitude/longitude map instead; click it to pick the site.
           </p>
@@ -478,7 +512,7 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
           ref={canvasRef}
           tabIndex={0}
           role="img"
-          aria-label={`Globe of the ${BODY_NAMES[body]} with the site at latitude ${lat_deg.toFixed(2)}°, longitude ${lon_deg.toFixed(2)}°. Drag or use the arrow keys to turn it; click to move the site.`}
+          aria-label={`Globe of ${BODY_ARTICLED[body]} with the site at latitude ${lat_deg.toFixed(2)}°, longitude ${lon_deg.toFixed(2)}°. Drag or use the arrow keys to turn it; click to move the site.`}
           style={{ width: size || '100%', height: size || undefined, display: 'block', cursor: 'grab', touchAction: 'none', borderRadius: 6 }}
         />
       )}

@@ -75,6 +75,8 @@ export const BODY_COLOURS: Record<BodyName, [number, number, number]> = {
 };
 
 export const BODY_NAMES: Record<BodyName, string> = { moon: 'Moon', earth: 'Earth', mars: 'Mars' };
+/** For running text: "the Moon", "the Earth", "Mars". */
+export const BODY_ARTICLED: Record<BodyName, string> = { moon: 'the Moon', earth: 'the Earth', mars: 'Mars' };
 
 export interface ShadingGrid {
   nLat: number;
