@@ -158,6 +158,7 @@ export function sensitivityFor(
   const noise = noiseMap(exposureH, tSys, opts.bandwidth_mhz);
   // covered pixels always have exposure > 0 (the beam is > 1/2 within FWHM/2), so no NaN enters the median
   const mask = new Uint8Array(covered.length);
-  for (let i = 0; i < covered.length; i++) mask[i] = covered[i] && exposureH[i] > 0 ? 1 : 0;
-  return { t_sky_k: tSky, t_sys_k: tSys, noise, noise_median_k: maskedMedian(noise, mask) };
+  let any = 0;
+  for (let i = 0; i < covered.length; i++) any += mask[i] = covered[i] && exposureH[i] > 0 ? 1 : 0;
+  return { t_sky_k: tSky, t_sys_k: tSys, noise, noise_median_k: any ? maskedMedian(noise, mask) : NaN };
 }

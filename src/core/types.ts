@@ -96,7 +96,7 @@ export interface FrequencySummary {
   t_sky_k?: number;
   /** added: T_sky + T_receiver, K */
   t_sys_k?: number;
-  /** added: median over covered pixels of the radiometer-equation noise, K */
+  /** added: median over covered pixels of the radiometer-equation noise, K; NaN (null in JSON) when no pixel is covered */
   noise_median_k?: number;
 }
 

@@ -17,6 +17,8 @@ describe('sensitivity (radiometer equation, Dicke 1946)', () => {
     expect(Number.isNaN(s.noise[1])).toBe(true); // never observed
     expect(s.noise[2]).toBeCloseTo(2 * 0.584968, 5); // a quarter of the time, twice the noise
     expect(s.noise_median_k).toBeCloseTo(0.584968, 5);
+    // nothing covered: no median (NaN, null in JSON), not a misleading 0 K
+    expect(sensitivityFor(10, Float32Array.from([0, 0]), new Uint8Array(2), { bandwidth_mhz: 1, receiver_temp_k: 1 }).noise_median_k).toBeNaN();
   });
 
   it('hand-computed example at 150 MHz: 0.5 MHz, 50 K receiver, 36 h', () => {
