@@ -24,7 +24,8 @@ async function main(): Promise<void> {
   console.log(`swathe benchmark, node ${process.version}, ${new Date().toISOString()}`);
   for (const l of await ephemerisLines()) console.log(l);
   const cov = await benchCoverage((l) => console.log(l));
-  if (json) console.log(JSON.stringify({ scenarios: cov.scenarios }));
+  const survey = await (await import('./survey')).benchSurvey((l) => console.log(l)); // issue 5 item 1 (helper V)
+  if (json) console.log(JSON.stringify({ scenarios: cov.scenarios, survey: survey.result }));
 }
 
 main().catch((e) => {

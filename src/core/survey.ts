@@ -129,6 +129,8 @@ export interface SurveyOptions {
   sites?: ArrayLike<number>;
   /** Compute the median noise (default true; it costs about a third of the time). */
   noise?: boolean;
+  /** Covered pixels the noise median is evaluated at (default NOISE_SAMPLE_PIXELS; more is slower and closer to the plan). */
+  noiseSamplePixels?: number;
 }
 
 /** Per-frequency figures, one entry per held site. */
@@ -138,7 +140,7 @@ export interface SurveyFrequencyFigures {
   sky_fraction_covered: Float64Array;
   usable_hours_beam_in_band: Float64Array;
   usable_hours_beam_near_center: Float64Array;
-  /** median radiometer noise over the covered pixels, K (0 when nothing is covered, as in the plan); NaN when not computed */
+  /** median radiometer noise over the covered pixels, K; NaN when nothing is covered (as in the plan) or when not computed */
   noise_median_k: Float64Array;
 }
 
@@ -436,9 +438,10 @@ function* exposureAtStage(hit: HitMap, beam: BeamProfile, nside: number, sel: Ui
  */
 function* noiseMedianStage(
   hit: HitMap, beam: BeamProfile, covered: Uint8Array, ncov: number, nside: number, tSysK: number, bandwidthMHz: number,
+  target: number,
 ): Stage<number> {
-  if (ncov === 0) return 0;
-  const m = Math.max(1, Math.floor(ncov / NOISE_SAMPLE_PIXELS));
+  if (ncov === 0) return NaN; // as the plan: no covered pixel, no median
+  const m = Math.max(1, Math.floor(ncov / target));
   const pick = m >> 1;
   const sel = new Uint8Array(covered.length);
   let rank = 0;
@@ -475,6 +478,8 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   const body = s.site.body;
   const which = frequencyIndices(s, opts.frequenciesMhz);
   const wantNoise = opts.noise ?? true;
+  const noiseTarget = opts.noiseSamplePixels ?? NOISE_SAMPLE_PIXELS;
+  if (!(Number.isInteger(noiseTarget) && noiseTarget >= 1)) throw new RangeError(`noiseSamplePixels must be an integer >= 1, got ${noiseTarget}`);
   const held = sites.length;
   const allBeams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam));
   const hitNside = hitNsideFor(Math.min(...allBeams.map((b) => b.fwhmRad)));
@@ -567,7 +572,7 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
         for (let p = 0; p < covered.length; p++) ncov += covered[p];
         fig.sky_fraction_covered[q] = ncov / covered.length;
         if (wantNoise) {
-          const ns = noiseMedianStage(hit, beams[f], covered, ncov, nside, tSys[f], sens.bandwidth_mhz);
+          const ns = noiseMedianStage(hit, beams[f], covered, ncov, nside, tSys[f], sens.bandwidth_mhz, noiseTarget);
           let rn = ns.next();
           while (!rn.done) { yield progress(lo + 0.5 * span + 0.5 * span * rn.value); rn = ns.next(); }
           fig.noise_median_k[q] = rn.value;

@@ -12,8 +12,10 @@
 // sun_down_h, earth_down_h, usable_h_zenith_in_band, usable_h_zenith_near_center,
 // usable_h_beam_near_center_<f>mhz (<f> as JavaScript prints the number, like
 // coverage.csv). Numbers are fixed-format: degrees 6 decimals, hours 3, sky
-// fractions 7, noise 6 significant digits; an empty cell is "not computed"
-// (noise with --no-noise) or "not applicable" (earth_down_h on the Earth).
+// fractions 7, noise 6 significant digits; an empty cell is "none" (noise
+// where no pixel is covered: null in the plan's summary.json), "not computed"
+// (noise with --no-noise, stated on line 1) or "not applicable" (earth_down_h
+// on the Earth).
 // Merged shards are byte for byte the unsharded file: every row is formatted
 // from its own site's figures alone, and the header does not depend on the shard.
 
