@@ -103,8 +103,9 @@ function gridLines(): THREE.Group {
     geo.setAttribute('position', new THREE.Float32BufferAttribute(pts, 3));
     return new THREE.LineSegments(geo, new THREE.LineBasicMaterial({ color: colour, transparent: true, opacity }));
   };
-  g.add(mk(minor, 0x1b1b24, 0.45));
-  g.add(mk(major, 0x101018, 0.85));
+  // A mid grey-blue reads on the light near side, the dark "never" violet and the plain body colours alike.
+  g.add(mk(minor, 0x5a6172, 0.8));
+  g.add(mk(major, 0x5a6172, 1));
   // A few labels so the user knows which way is east.
   const labels: [number, number, string][] = [];
   for (let lon = -150; lon <= 180; lon += 30) {
@@ -310,11 +311,16 @@ function ShadingLegend({ shading }: { shading: GlobeShading }): JSX.Element {
   return (
     <div className="globe-legend" style={{ font: '12px/1.4 system-ui, sans-serif', marginTop: 4 }}>
       <div>{shading.label ?? 'Earth above the horizon (fraction of time)'}</div>
-      <div style={{ display: 'flex', alignItems: 'center', gap: 6, flexWrap: 'wrap' }}>
-        <span aria-hidden="true" style={{ display: 'inline-block', width: 14, height: 12, background: cssRgb(shadingColour(0)), border: '1px solid #555' }} />
-        <span>never</span>
-        <span aria-hidden="true" style={{ display: 'inline-block', width: 120, height: 12, background: `linear-gradient(to right, ${stops})`, border: '1px solid #555' }} />
-        <span>0 → 100 % of the time</span>
+      <div style={{ display: 'flex', alignItems: 'center', columnGap: 6, rowGap: 2, flexWrap: 'wrap' }}>
+        <span style={{ whiteSpace: 'nowrap' }}>
+          <span aria-hidden="true" style={{ display: 'inline-block', width: 14, height: 12, background: cssRgb(shadingColour(0)), border: '1px solid #555', verticalAlign: 'middle', marginRight: 4 }} />
+          never
+        </span>
+        <span style={{ whiteSpace: 'nowrap' }}>
+          0 %{' '}
+          <span aria-hidden="true" style={{ display: 'inline-block', width: 90, height: 12, background: `linear-gradient(to right, ${stops})`, border: '1px solid #555', verticalAlign: 'middle' }} />
+          {' '}100 % of the time
+        </span>
       </div>
     </div>
   );
