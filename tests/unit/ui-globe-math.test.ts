@@ -97,3 +97,21 @@ describe('Earth-visibility shading lookup', () => {
     expect(sum(shadingColour(0.9))).toBeGreaterThan(sum(shadingColour(0.3)));
   });
 });
+
+describe('shading lookup on a node grid (poles included, as earthVisibilityStage returns it)', () => {
+  it('reads node values exactly and wraps longitude at -180', () => {
+    // lat -90, 0, 90; lon -180, -90, 0, 90 (nodes, not cell centres).
+    const grid = {
+      nLat: 3,
+      nLon: 4,
+      lat_deg: Float64Array.from([-90, 0, 90]),
+      lon_deg: Float64Array.from([-180, -90, 0, 90]),
+      fraction: Float32Array.from([0, 0, 0, 0, 0.2, 0.4, 0.6, 0.8, 1, 1, 1, 1]),
+    };
+    expect(shadingAt(grid, 0, 0)).toBeCloseTo(0.6, 6);
+    expect(shadingAt(grid, 0, 135)).toBeCloseTo((0.8 + 0.2) / 2, 6);
+    expect(shadingAt(grid, 0, 180)).toBeCloseTo(0.2, 6);
+    expect(shadingAt(grid, -45, -90)).toBeCloseTo(0.2, 6);
+    expect(shadingAt(grid, 90, 33)).toBeCloseTo(1, 6);
+  });
+});

@@ -221,7 +221,7 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
   };
 
   const freqs = result.scenario.telescope.frequencies_mhz;
-  const f = freqs[freqIndex];
+  const f = freqs[freqIndex] ?? '?';
   const label = compare
     ? `Sky map: half-power outlines of the tracks at ${freqs.join(', ')} MHz, ${frame} frame`
     : diff

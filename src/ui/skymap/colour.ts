@@ -82,8 +82,18 @@ export interface ValueScale {
   max: number;
 }
 
-/** Largest finite value and smallest positive finite value of a map. */
+const rangeCache = new WeakMap<object, { maxPos: number; minPos: number; maxAbs: number }>();
+
+/** Largest finite value and smallest positive finite value of a map (cached per typed array: maps are never mutated). */
 export function mapRange(map: ArrayLike<number>): { maxPos: number; minPos: number; maxAbs: number } {
+  const hit = typeof map === 'object' && ArrayBuffer.isView(map) ? rangeCache.get(map) : undefined;
+  if (hit) return hit;
+  const r = scanRange(map);
+  if (ArrayBuffer.isView(map)) rangeCache.set(map, r);
+  return r;
+}
+
+function scanRange(map: ArrayLike<number>): { maxPos: number; minPos: number; maxAbs: number } {
   let maxPos = 0;
   let minPos = Infinity;
   let maxAbs = 0;
