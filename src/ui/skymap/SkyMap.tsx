@@ -17,6 +17,7 @@ import {
   type SkyView,
 } from './figure';
 import { LookupCache, screenToJ2000, type SkyFrame } from './skyProjection';
+import { coveredMasksAsync } from './coverageOutline';
 
 export type { SkyFrame } from './skyProjection';
 export type { SkyScale } from './figure';
@@ -93,6 +94,9 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
   const [hover, setHover] = useState<{ x: number; y: number; h: SkyHover } | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
   const [lastRaster, setLastRaster] = useState<RasterOut | null>(null);
+  // Bumped when comparison outlines finish computing, to redraw with them.
+  const [outlinesReady, setOutlinesReady] = useState(0);
+  const [outlineError, setOutlineError] = useState<string | null>(null);
 
   useEffect(() => {
     const el = boxRef.current;
@@ -118,11 +122,9 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
   useEffect(() => {
     const canvas = canvasRef.current;
     if (!canvas || !geometry) return;
-    const nside = result.scenario.map.nside;
     const dpr = Math.min(2, Math.max(1, window.devicePixelRatio || 1));
     const cols = width, rows = height;
-    const lookup = lookups.get(geometry, frame, nside, cols, rows);
-    const raster = renderRaster(result, view, lookup, cols, rows);
+    const raster = renderRaster(result, view, (n) => lookups.get(geometry, frame, n, cols, rows), cols, rows);
     let rc = rasterCanvas.current;
     if (!rc) rc = rasterCanvas.current = document.createElement('canvas');
     if (rc.width !== cols || rc.height !== rows) { rc.width = cols; rc.height = rows; }
@@ -159,9 +161,22 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     canvas.dataset.frame = frame;
     canvas.dataset.scale = scale;
     canvas.dataset.compare = compare ? '1' : '0';
+    canvas.dataset.pending = raster.pending ? '1' : '0';
     setProblem(raster.problem);
     setLastRaster(raster);
-  }, [result, view, geometry, width, height, frame, freqIndex, scale, compare, u]);
+  }, [result, view, geometry, width, height, frame, freqIndex, scale, compare, u, outlinesReady]);
+
+  // Comparison outlines are computed in slices off the input path; redraw once they exist.
+  useEffect(() => {
+    if (!compare) return;
+    let live = true;
+    setOutlineError(null);
+    coveredMasksAsync(result).then(
+      () => { if (live) setOutlinesReady((n) => n + 1); },
+      (e: unknown) => { if (live) setOutlineError(`Outlines could not be computed: ${e instanceof Error ? e.message : String(e)}`); },
+    );
+    return () => { live = false; };
+  }, [compare, result]);
 
   // Colour bar (not in comparison mode: the legend carries the colours there).
   useEffect(() => {
@@ -248,6 +263,11 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
           onFocus={() => { const p = geometry?.projection(keyCursor.current); if (p) hoverLocal(p[0], p[1]); }}
           onBlur={() => { setHover(null); onHover?.(null); }}
         />
+        {(lastRaster?.pending || outlineError) && !problem && (
+          <p role="status" style={{ position: 'absolute', left: 0, right: 0, top: '45%', textAlign: 'center', margin: 0, fontWeight: 600 }}>
+            {outlineError ?? 'Computing the half-power outlines…'}
+          </p>
+        )}
         {problem && (
           <p role="status" style={{ position: 'absolute', left: 0, right: 0, top: '45%', textAlign: 'center', margin: 0, fontWeight: 600 }}>
             {problem}

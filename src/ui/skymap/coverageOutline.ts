@@ -1,6 +1,7 @@
 import type { PlanResult } from '../../core/types';
 import { fwhmRad } from '../../core/beam';
-import { coveredMask, hitMap, hitNsideFor } from '../../core/coverage';
+import type { Stage } from '../../core/types';
+import { coveredMask, coveredStage, hitMap, hitMapStage, hitNsideFor } from '../../core/coverage';
 
 // Comparison mode: the half-power outline of each frequency's track. The
 // covered region is the one the summary's sky_fraction_covered counts: RING
@@ -16,18 +17,75 @@ export function outlineColour(i: number): string {
   return OUTLINE_COLOURS[i % OUTLINE_COLOURS.length];
 }
 
-const maskCache = new WeakMap<PlanResult, Uint8Array[]>();
+/**
+ * Outlines are computed at most at this nside (pixels of 0.23 deg, finer than
+ * a screen pixel of a full-sky map up to ~1500 px wide): at nside 1024 the
+ * masks would take seconds and look the same.
+ */
+export const MAX_OUTLINE_NSIDE = 256;
+export function outlineNside(result: PlanResult): number {
+  return Math.min(result.scenario.map.nside, MAX_OUTLINE_NSIDE);
+}
 
-/** Covered masks, one per frequency, computed once per result (from the track and usable flags it carries). */
+const maskCache = new WeakMap<PlanResult, Uint8Array[]>();
+const pendingCache = new WeakMap<PlanResult, Promise<Uint8Array[]>>();
+
+function beamWidths(result: PlanResult): number[] {
+  const s = result.scenario;
+  return s.telescope.frequencies_mhz.map((f) => fwhmRad(f, s.telescope.aperture_m, s.telescope.beam));
+}
+
+/** Covered masks if already computed for this result, else null. */
+export function cachedCoveredMasks(result: PlanResult): Uint8Array[] | null {
+  return maskCache.get(result) ?? null;
+}
+
+/** Covered masks (RING at outlineNside), one per frequency, computed once per result (synchronously; for Node and tests). */
 export function coveredMasks(result: PlanResult): Uint8Array[] {
   const cached = maskCache.get(result);
   if (cached) return cached;
-  const s = result.scenario;
-  const fw = s.telescope.frequencies_mhz.map((f) => fwhmRad(f, s.telescope.aperture_m, s.telescope.beam));
+  const fw = beamWidths(result);
   const hit = hitMap(result.track, result.usable, { nside: hitNsideFor(Math.min(...fw)) });
-  const masks = fw.map((w) => coveredMask(hit, w / 2, s.map.nside));
+  const masks = fw.map((w) => coveredMask(hit, w / 2, outlineNside(result)));
   maskCache.set(result, masks);
   return masks;
+}
+
+/** Work slice before giving the page a turn (ms). */
+const SLICE_MS = 30;
+
+async function driveSliced<T>(stage: Stage<T>): Promise<T> {
+  for (;;) {
+    const t0 = performance.now();
+    for (;;) {
+      const r = stage.next();
+      if (r.done) return r.value;
+      if (performance.now() - t0 > SLICE_MS) break;
+    }
+    await new Promise<void>((res) => setTimeout(res, 0));
+  }
+}
+
+/**
+ * The same masks computed in slices of ~30 ms between which the page stays
+ * responsive (at nside 1024 this takes seconds). One computation per result.
+ */
+export function coveredMasksAsync(result: PlanResult): Promise<Uint8Array[]> {
+  const cached = maskCache.get(result);
+  if (cached) return Promise.resolve(cached);
+  let p = pendingCache.get(result);
+  if (p) return p;
+  p = (async () => {
+    const fw = beamWidths(result);
+    const hit = await driveSliced(hitMapStage(result.track, result.usable, { nside: hitNsideFor(Math.min(...fw)) }));
+    const masks: Uint8Array[] = [];
+    for (const w of fw) masks.push(await driveSliced(coveredStage(hit, w / 2, outlineNside(result))));
+    maskCache.set(result, masks);
+    return masks;
+  })();
+  p.catch(() => pendingCache.delete(result));
+  pendingCache.set(result, p);
+  return p;
 }
 
 /**

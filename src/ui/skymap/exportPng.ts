@@ -12,6 +12,7 @@ import {
   type SkyView,
 } from './figure';
 import { fontPx, type Ctx2D } from './overlays';
+import { coveredMasksAsync } from './coverageOutline';
 import { LookupCache, type SkyFrame } from './skyProjection';
 
 // The sky map as a PNG figure for a report: title, map, colour bar, legend and
@@ -94,6 +95,7 @@ export async function renderSkyMapPng(result: PlanResult, options: SkyMapPngOpti
     diff: options.diff ?? null,
     beamAt: options.beamAt ?? null,
   };
+  if (view.compare) await coveredMasksAsync(result);
   const u = W / 900; // text and line sizes relative to a 900 px figure
   const margin = Math.round(24 * u);
   const inner = W - 2 * margin;
@@ -135,8 +137,7 @@ export async function renderSkyMapPng(result: PlanResult, options: SkyMapPngOpti
 
   // The map, rendered at full resolution (one raster pixel per output pixel).
   const g = fitGeometry(W, mapH, view.flipLongitude, u);
-  const lookup = exportLookups.get(g, view.frame, result.scenario.map.nside, W, mapH);
-  const raster = renderRaster(result, view, lookup, W, mapH);
+  const raster = renderRaster(result, view, (n) => exportLookups.get(g, view.frame, n, W, mapH), W, mapH);
   const rc = makeCanvas(W, mapH);
   const rctx = ctxOf(rc);
   rctx.putImageData(new ImageData(raster.pixels as unknown as Uint8ClampedArray<ArrayBuffer>, W, mapH), 0, 0);

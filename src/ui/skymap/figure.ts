@@ -14,7 +14,7 @@ import {
   type SkySchemeName,
   type ValueScale,
 } from './colour';
-import { coveredMasks, outlineColour, paintOutlines } from './coverageOutline';
+import { cachedCoveredMasks, outlineColour, outlineNside, paintOutlines } from './coverageOutline';
 import { drawCentreMarker, drawGraticuleLabels, drawOverlays, fontPx, haloText, type Ctx2D } from './overlays';
 import { frameAxisNames, makeMapGeometry, type LookupCache, type MapGeometry, type SkyFrame } from './skyProjection';
 
@@ -79,10 +79,23 @@ export interface RasterOut {
   lut: Uint8ClampedArray | null;
   /** Why nothing is coloured (e.g. a resolution mismatch in difference mode), else null. */
   problem: string | null;
+  /** Comparison mode whose outlines are still being computed (coveredMasksAsync); redraw when they are. */
+  pending?: boolean;
 }
 
-/** Colours the raster for one view; `lookup` must come from the same geometry, frame and nside. */
-export function renderRaster(result: PlanResult, view: SkyView, lookup: Int32Array, cols: number, rows: number): RasterOut {
+/**
+ * Colours the raster for one view. `lookupFor(nside)` gives the pixel lookup
+ * for the view's geometry and frame at an nside (the map's, or the outlines'
+ * coarser one in comparison mode).
+ */
+export function renderRaster(
+  result: PlanResult,
+  view: SkyView,
+  lookupFor: (nside: number) => Int32Array,
+  cols: number,
+  rows: number,
+): RasterOut {
+  const lookup = lookupFor(result.scenario.map.nside);
   const pixels = new Uint8ClampedArray(4 * cols * rows);
   const map = result.maps[view.freqIndex];
   if (!map) return { pixels, cols, rows, scale: null, lut: null, problem: 'no map for the selected frequency' };
@@ -90,8 +103,9 @@ export function renderRaster(result: PlanResult, view: SkyView, lookup: Int32Arr
     // Neutral sky, then every frequency's covered-region outline on top.
     const grey = new Float32Array(0);
     colourise(lookup, grey, { kind: 'linear', min: 0, max: 1 }, schemeLut(DEFAULT_SCHEME), pixels);
-    const masks = coveredMasks(result);
-    paintOutlines(lookup, cols, rows, masks, masks.map((_, i) => outlineColour(i)), pixels, Math.max(2, Math.round(cols / 450)));
+    const masks = cachedCoveredMasks(result);
+    if (!masks) return { pixels, cols, rows, scale: null, lut: null, problem: null, pending: true };
+    paintOutlines(lookupFor(outlineNside(result)), cols, rows, masks, masks.map((_, i) => outlineColour(i)), pixels, Math.max(2, Math.round(cols / 450)));
     return { pixels, cols, rows, scale: null, lut: null, problem: null };
   }
   if (view.diff) {
