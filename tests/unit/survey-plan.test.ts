@@ -1,5 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { computeSurvey, surveyGrid, type SurveyResult } from '../../src/core/survey';
+import { computeSurvey, coveredMaskStage, surveyGrid, type SurveyResult } from '../../src/core/survey';
+import { beamProfileFor, coveredStage, hitMapStage, hitNsideFor } from '../../src/core/coverage';
+import { computeTrack } from '../../src/core/ephemeris';
+import { usableMask } from '../../src/core/usable';
+import { drain } from '../../src/core/types';
 import { runPlan } from '../../src/engine/runPlan';
 import { DEMO_SCENARIO } from '../../src/core/demo';
 import type { BodyName, PlanResult, Scenario } from '../../src/core/types';
@@ -88,6 +92,27 @@ describe('survey figures equal a direct plan of each site (within 1%)', () => {
     };
     const rm = computeSurvey(masked, { stepDeg: 15, sites: [60, 130] });
     for (let q = 0; q < 2; q++) expectSiteMatchesPlan(rm, q, await planOf(masked, rm, q));
+  });
+});
+
+describe('the survey covered-sky search gives the plan mask', () => {
+  it('pixel for pixel, for narrow and wide beams, at nside 64, 128 and 512 (beyond the centre table)', () => {
+    const s: Scenario = { ...DEMO_SCENARIO, site: { body: 'moon', lat_deg: -31, lon_deg: 160 }, span: { start: '2031-03-01T00:00:00Z', end: '2031-04-15T00:00:00Z', step_min: null } };
+    const track = computeTrack(s);
+    const usable = usableMask(track, s.constraints);
+    const beams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam));
+    const hit = drain(hitMapStage(track, usable, { nside: hitNsideFor(Math.min(...beams.map((b) => b.fwhmRad))) }));
+    expect(hit.pix.length).toBeGreaterThan(1000);
+    for (const nside of [64, 128, 512]) {
+      for (const b of nside === 512 ? [beams[3]] : beams) {
+        const plan = drain(coveredStage(hit, b.fwhmRad / 2, nside));
+        const mine = drain(coveredMaskStage(hit, b.fwhmRad / 2, nside));
+        let diff = 0, cov = 0;
+        for (let q = 0; q < plan.length; q++) { diff += plan[q] !== mine[q] ? 1 : 0; cov += plan[q]; }
+        expect(cov).toBeGreaterThan(0);
+        expect(diff, `nside ${nside}, FWHM ${b.fwhmRad}`).toBe(0);
+      }
+    }
   });
 });
 
