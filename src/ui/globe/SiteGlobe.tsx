@@ -255,6 +255,8 @@ function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
 
   const controls = new OrbitControls(camera, canvas);
   controls.enablePan = false;
+  // No wheel zoom: scrolling the page over the globe must scroll the page.
+  controls.enableZoom = false;
   controls.enableDamping = false;
   controls.minDistance = 2.2;
   controls.maxDistance = 12;
