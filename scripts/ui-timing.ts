@@ -33,28 +33,31 @@ async function main(): Promise<void> {
       await page.goto(`http://127.0.0.1:${port}/`);
       const canvas = page.locator('[data-testid="sky-map-canvas"]');
       await canvas.waitFor({ timeout: 120_000 });
-      await page.waitForFunction(() => Number(document.querySelector('[data-testid="sky-map-canvas"]')?.getAttribute('data-draw-count') ?? 0) >= 1, null, { timeout: 120_000 });
+      await page.waitForFunction(`Number(document.querySelector('[data-testid="sky-map-canvas"]')?.getAttribute('data-draw-count') ?? 0) >= 1`, null, { timeout: 120_000 });
       // data-drawn-at is performance.now() at the end of the draw: ms since navigation start.
       first.push(Number(await canvas.getAttribute('data-drawn-at')));
-      firstResult.push(await page.evaluate(() => {
-        const e = performance.getEntriesByName('swathe:first-result')[0];
-        return e ? e.startTime : NaN;
-      }));
+      firstResult.push((await page.evaluate(`(performance.getEntriesByName('swathe:first-result')[0] || { startTime: NaN }).startTime`)) as number);
       const nFreq = await page.getByRole('radio').count();
       for (let k = 0; k < 2 * nFreq; k++) {
         const target = (k + 1) % nFreq;
-        const ms = await page.evaluate(async (i) => {
-          const c = document.querySelector('[data-testid="sky-map-canvas"]')!;
+        // In-page code as text: tsx would add helper calls to a compiled function that the page lacks.
+        const ms = (await page.evaluate(`(async () => {
+          const c = document.querySelector('[data-testid="sky-map-canvas"]');
           const n0 = Number(c.getAttribute('data-draw-count'));
-          const radio = document.querySelectorAll<HTMLInputElement>('input[type="radio"][name="freq"]')[i];
+          const radio = document.querySelectorAll('input[type="radio"][name="freq"]')[${target}];
+          // Watch before clicking: React may draw synchronously inside the click.
+          const drawn = new Promise((res) => {
+            const mo = new MutationObserver(() => {
+              if (Number(c.getAttribute('data-draw-count')) > n0) { mo.disconnect(); res(); }
+            });
+            mo.observe(c, { attributes: true });
+            setTimeout(() => { if (Number(c.getAttribute('data-draw-count')) > n0) { mo.disconnect(); res(); } }, 0);
+          });
           const t0 = performance.now();
           radio.click();
-          await new Promise<void>((res) => {
-            const mo = new MutationObserver(() => { if (Number(c.getAttribute('data-draw-count')) > n0) { mo.disconnect(); res(); } });
-            mo.observe(c, { attributes: true });
-          });
+          await drawn;
           return Number(c.getAttribute('data-drawn-at')) - t0;
-        }, target);
+        })()`)) as number;
         redraw.push(ms);
       }
       await context.close();

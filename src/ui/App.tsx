@@ -183,7 +183,7 @@ export function App() {
             <section className="placeholder" aria-live="polite">
               {engine.running ? <p>Computing the first map…</p> : <p>No result yet. {runnable ? 'Press Compute.' : 'Fix the marked fields in the scenario panel.'}</p>}
               <div className="globe-col solo">
-                <GlobePane draft={draft} scenario={scenario} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
+                <GlobePane draft={draft} scenario={scenario} shadingReady={false} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
               </div>
             </section>
           )}

@@ -1,8 +1,8 @@
-import { useEffect, useMemo, useState } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import type { Scenario } from '../core/types';
 import { siteStateAt } from '../core/ephemeris';
 import { parseUtcMs } from '../core/time';
-import { SiteGlobe, type GlobeShading } from './globe/SiteGlobe';
+import type { GlobeShading } from './globe/SiteGlobe';
 import type { Draft } from './state/draft';
 import { earthShadingFor } from './state/earthShading';
 import { utcMinute } from './format';
@@ -11,6 +11,9 @@ import { utcMinute } from './format';
 // Moon, the Earth-visibility shading.
 
 type V3 = [number, number, number];
+
+// three.js is loaded on its own, so the first map does not wait for it.
+const SiteGlobe = lazy(() => import('./globe/SiteGlobe').then((m) => ({ default: m.SiteGlobe })));
 const D2R = Math.PI / 180;
 
 /** Body-fixed unit vector of a direction seen at (lat, lon) with azimuth (N->E) and elevation. */
@@ -23,11 +26,13 @@ export function localToBodyFixed(latDeg: number, lonDeg: number, azDeg: number, 
   return [e * east[0] + n * north[0] + u * up[0], e * east[1] + n * north[1] + u * up[1], e * east[2] + n * north[2] + u * up[2]];
 }
 
-export function GlobePane({ draft, scenario, onPick, atMs }: {
+export function GlobePane({ draft, scenario, onPick, atMs, shadingReady = true }: {
   draft: Draft;
   scenario: Scenario | null;
   onPick: (lat: number, lon: number) => void;
   atMs?: number | null;
+  /** false until the first plan result is in, so the shading worker does not slow the first map */
+  shadingReady?: boolean;
 }) {
   const latN = Number(draft.lat);
   const lonN = Number(draft.lon);
@@ -58,6 +63,7 @@ export function GlobePane({ draft, scenario, onPick, atMs }: {
   const [shadeMsg, setShadeMsg] = useState<string | null>(null);
   useEffect(() => {
     if (body !== 'moon' || startMs === null) { setShading(null); return; }
+    if (!shadingReady) return;
     let live = true;
     setShadeMsg('Computing Earth-visibility shading…');
     earthShadingFor(startMs).then(
@@ -65,14 +71,16 @@ export function GlobePane({ draft, scenario, onPick, atMs }: {
       (e) => { if (live) setShadeMsg(`Earth-visibility shading unavailable: ${e instanceof Error ? e.message : String(e)}`); },
     );
     return () => { live = false; };
-  }, [body, startMs === null ? null : new Date(startMs).getUTCFullYear()]); // eslint-disable-line react-hooks/exhaustive-deps
+  }, [body, shadingReady, startMs === null ? null : new Date(startMs).getUTCFullYear()]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const d = dirs as { sun: V3 | null; earth: V3 | null; sunElev?: number; earthElev?: number | null; err: string | null };
   return (
     <figure className="globe-pane">
       <div className="globe-box">
-        <SiteGlobe body={body} lat_deg={lat} lon_deg={lon} onPick={onPick} sunDir={d.sun} earthDir={body === 'moon' ? d.earth : null}
-          shading={body === 'moon' ? shading : null} />
+        <Suspense fallback={<p className="muted">Loading the globe…</p>}>
+          <SiteGlobe body={body} lat_deg={lat} lon_deg={lon} onPick={onPick} sunDir={d.sun} earthDir={body === 'moon' ? d.earth : null}
+            shading={body === 'moon' ? shading : null} />
+        </Suspense>
       </div>
       <figcaption>
         <span>Drag to turn, click to move the site.</span>
