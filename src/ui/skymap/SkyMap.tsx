@@ -2,7 +2,7 @@ import { useEffect, useMemo, useRef, useState, type JSX } from 'react';
 import type { PlanResult } from '../../core/types';
 import { vecToGalDeg, vecToRaDecDeg } from '../../core/frames';
 import { vec2pixRing } from '../../core/healpix';
-import { formatHours } from './colour';
+import { formatHours, type SkySchemeName } from './colour';
 import {
   colourBarTitle,
   drawColourBar,
@@ -21,6 +21,7 @@ import { coveredMasksAsync } from './coverageOutline';
 
 export type { SkyFrame } from './skyProjection';
 export type { SkyScale } from './figure';
+export type { SkySchemeName } from './colour';
 import type { SkyScale } from './figure';
 
 export interface SkyHover {
@@ -45,6 +46,8 @@ export interface SkyMapProps {
   onHover?: (h: SkyHover | null) => void;
   beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
+  /** Sequential colour map; default cividis (readable with colour-vision deficiencies). */
+  scheme?: SkySchemeName;
 }
 
 const lookups = new LookupCache(6);
@@ -82,7 +85,7 @@ function LegendSwatch({ e }: { e: LegendEntry }): JSX.Element {
 }
 
 export function SkyMap(props: SkyMapProps): JSX.Element {
-  const { result, freqIndex, frame, scale, flipLongitude, compare, onHover, beamAt, diff } = props;
+  const { result, freqIndex, frame, scale, flipLongitude, compare, onHover, beamAt, diff, scheme } = props;
   const boxRef = useRef<HTMLDivElement | null>(null);
   const canvasRef = useRef<HTMLCanvasElement | null>(null);
   const barRef = useRef<HTMLCanvasElement | null>(null);
@@ -111,8 +114,8 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
   }, []);
 
   const view: SkyView = useMemo(
-    () => ({ freqIndex, frame, scale, flipLongitude, compare, diff: diff ?? null, beamAt: beamAt ?? null }),
-    [freqIndex, frame, scale, flipLongitude, compare, diff, beamAt],
+    () => ({ freqIndex, frame, scale, flipLongitude, compare, diff: diff ?? null, beamAt: beamAt ?? null, scheme }),
+    [freqIndex, frame, scale, flipLongitude, compare, diff, beamAt, scheme],
   );
   const height = Math.round(width / 2);
   const u = width < 560 ? 0.85 : 1;

@@ -31,6 +31,7 @@ export interface SkyMapPngOptions {
   caption: string;
   beamAt?: SkyView['beamAt'];
   diff?: SkyView['diff'];
+  scheme?: SkyView['scheme'];
 }
 
 export const PNG_MIN_WIDTH = 400;
@@ -94,6 +95,7 @@ export async function renderSkyMapPng(result: PlanResult, options: SkyMapPngOpti
     compare: options.compare,
     diff: options.diff ?? null,
     beamAt: options.beamAt ?? null,
+    scheme: options.scheme,
   };
   if (view.compare) await coveredMasksAsync(result);
   const u = W / 900; // text and line sizes relative to a 900 px figure
