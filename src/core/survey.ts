@@ -288,9 +288,10 @@ function siteFromRow(
   const zBand = bandSin(s.map.galactic_band_deg);
   const zNear = Math.cos(s.map.galactic_center_radius_deg * DEG);
   const nf = halfFwhmDeg.length;
-  const bBand = halfFwhmDeg.map((h) => bandSin(s.map.galactic_band_deg + h));
-  const bNear = halfFwhmDeg.map((h) => Math.cos(Math.min(180, s.map.galactic_center_radius_deg + h) * DEG));
-  const beamBand = new Array<number>(nf).fill(0), beamNear = new Array<number>(nf).fill(0);
+  const bBand = Float64Array.from(halfFwhmDeg, (h) => bandSin(s.map.galactic_band_deg + h));
+  const bNear = Float64Array.from(halfFwhmDeg, (h) => Math.cos(Math.min(180, s.map.galactic_center_radius_deg + h) * DEG));
+  const beamBand = new Float64Array(nf), beamNear = new Float64Array(nf);
+  const gc0 = gc[0], gc1 = gc[1], gc2 = gc[2];
   const { M, S, E, weight } = row;
   const zxA = tr.zx, zyA = tr.zy, zzA = tr.zz;
   let sunDown = 0, earthDown = 0, use = 0, zIn = 0, zNearH = 0;
@@ -327,7 +328,7 @@ function siteFromRow(
     if (!ok) continue;
     use += w;
     const gz = Math.abs(G6 * zx + G7 * zy + G8 * zz);
-    const dc = zx * gc[0] + zy * gc[1] + zz * gc[2];
+    const dc = zx * gc0 + zy * gc1 + zz * gc2;
     if (gz < zBand) zIn += w;
     if (dc > zNear) zNearH += w;
     for (let f = 0; f < nf; f++) {
@@ -337,7 +338,7 @@ function siteFromRow(
   }
   return {
     usable: use, sun_down: sunDown, earth_down: E ? earthDown : null, zenith_in_band: zIn, zenith_near_center: zNearH,
-    beam_in_band: beamBand, beam_near_center: beamNear,
+    beam_in_band: Array.from(beamBand), beam_near_center: Array.from(beamNear),
   };
 }
 
@@ -444,9 +445,8 @@ export function* coveredMaskStage(hit: HitMap, radiusRad: number, nside: number)
 // ---------------------------------------------------------------------------
 // Exposure at selected pixels (for the noise median)
 
-/** Exposure groups: radius as a fraction of the beam cutoff (the plan uses 1/2; measured a little faster here at 1; the sums differ only in rounding). */
-let EXPOSURE_GROUP_OF_CUTOFF = 1;
-export function setExposureGroupForTests(f: number): void { EXPOSURE_GROUP_OF_CUTOFF = f; }
+/** Smallest group radius for the noise's exposure gather (keeps the groups few for narrow beams). */
+const EXPOSURE_GROUP_MIN_RAD = 2 * DEG;
 
 // The beam table depends on the beam alone: built once per beam for all sites.
 const tables = new WeakMap<BeamProfile, ReturnType<typeof beamTable>>();
@@ -464,10 +464,9 @@ function groupNsideFor(hitNside: number, maxRadRad: number): number {
 
 /**
  * Exposure (hours) at the RING pixels flagged in `sel`, by the plan's
- * algorithm (coverage.ts exposureStage: hit map degraded to FWHM/6, groups of
- * hit pixels, one disc query per group, centroids, tabulated beam), so a
- * selected pixel gets the plan's value up to the order of the sums;
- * unselected pixels are skipped.
+ * arithmetic (coverage.ts exposureStage: hit map degraded to FWHM/6,
+ * centroids, the tabulated beam, contributions beyond the cutoff dropped), so
+ * a selected pixel gets the plan's value up to the order of the sums.
  */
 function* exposureAtStage(hit: HitMap, beam: BeamProfile, nside: number, sel: Uint8Array): Stage<Float64Array> {
   const level = Math.min(hit.nside, nsideForResolution(beam.fwhmRad / EXPOSURE_HIT_PER_FWHM));
@@ -475,38 +474,45 @@ function* exposureAtStage(hit: HitMap, beam: BeamProfile, nside: number, sel: Ui
   const { uMax, scale, values } = cachedBeamTable(beam);
   const acc = new Float64Array(nside2npix(nside));
   const cen = centroidsOf(h);
-  const groupNside = groupNsideFor(h.nside, Math.max(beam.cutoffRad * EXPOSURE_GROUP_OF_CUTOFF, nside2resolRad(nside) / 2));
+  // Gather: few selected pixels, so each one tests every group of hit pixels
+  // (groups about as wide as the beam cutoff) and sums the groups in reach.
+  const groupNside = groupNsideFor(h.nside, Math.max(beam.cutoffRad, EXPOSURE_GROUP_MIN_RAD));
   const { starts, div } = groupStarts(h, groupNside);
-  const radius = Math.min(Math.PI, beam.cutoffRad + maxPixradRad(groupNside));
-  const scratch = { buf: new Float64Array(0) };
   const groups = starts.length - 1;
-  let work = 0;
+  const gc = new Float64Array(3 * groups);
   for (let g = 0; g < groups; g++) {
-    const k0 = starts[g], k1 = starts[g + 1];
-    const gcv = pix2vecNest(groupNside, Math.floor(h.pix[k0] / div));
-    const ranges = queryDiscRingRanges(nside, gcv[0], gcv[1], gcv[2], radius, false);
-    for (let r = 0; r < ranges.length; r += 2) {
-      const end = ranges[r + 1];
-      const [centres, base] = centresOf(nside, ranges[r], end, scratch);
-      for (let q = ranges[r]; q < end; q++) {
-        if (!sel[q]) continue;
-        const o = 3 * (q - base);
-        const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
-        let sum = 0;
-        for (let k = k0; k < k1; k++) {
-          const u = 1 - (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz);
-          if (u >= uMax) continue;
-          const f = (u > 0 ? u : 0) * scale;
-          const i0 = f | 0;
-          sum += h.hours[k] * (values[i0] + (values[i0 + 1] - values[i0]) * (f - i0));
-        }
-        acc[q] += sum;
-        work += k1 - k0;
+    const c = pix2vecNest(groupNside, Math.floor(h.pix[starts[g]] / div));
+    gc[3 * g] = c[0]; gc[3 * g + 1] = c[1]; gc[3 * g + 2] = c[2];
+  }
+  const reach = beam.cutoffRad + maxPixradRad(groupNside);
+  const cosReach = reach >= Math.PI ? -2 : Math.cos(reach);
+  const list: number[] = [];
+  for (let q = 0; q < sel.length; q++) if (sel[q]) list.push(q);
+  const scratch = { buf: new Float64Array(0) };
+  let work = 0;
+  for (let i = 0; i < list.length; i++) {
+    const q = list[i];
+    const [centres, base] = centresOf(nside, q, q + 1, scratch);
+    const o = 3 * (q - base);
+    const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
+    let total = 0;
+    for (let g = 0; g < groups; g++) {
+      if (gc[3 * g] * px + gc[3 * g + 1] * py + gc[3 * g + 2] * pz < cosReach) continue;
+      const k0 = starts[g], k1 = starts[g + 1];
+      let sum = 0;
+      for (let k = k0; k < k1; k++) {
+        const u = 1 - (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz);
+        if (u >= uMax) continue;
+        const f = (u > 0 ? u : 0) * scale;
+        const i0 = f | 0;
+        sum += h.hours[k] * (values[i0] + (values[i0 + 1] - values[i0]) * (f - i0));
       }
-      work += (end - ranges[r]) >> 4;
+      total += sum;
+      work += k1 - k0;
     }
-    work += 20;
-    if (work >= 100_000) { work = 0; yield g / groups; }
+    acc[q] = total;
+    work += groups >> 2;
+    if (work >= 100_000) { work = 0; yield i / list.length; }
   }
   return acc;
 }
