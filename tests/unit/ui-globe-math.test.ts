@@ -11,7 +11,13 @@ import {
   shadingProblem,
   wrapLon,
   NEVER_FRACTION,
+  isValueLayer,
+  nearestCell,
+  shadingSurfaceColour,
+  NO_VALUE_RGB,
 } from '../../src/ui/globe/globeMath';
+import { parseCssRgb } from '../../src/ui/skymap/colour';
+import { interpolateCividis } from 'd3-scale-chromatic';
 
 describe('site globe geometry', () => {
   it('round-trips latitude and east-positive longitude through scene coordinates', () => {
@@ -113,5 +119,38 @@ describe('shading lookup on a node grid (poles included, as earthVisibilityStage
     expect(shadingAt(grid, 0, 180)).toBeCloseTo(0.2, 6);
     expect(shadingAt(grid, -45, -90)).toBeCloseTo(0.2, 6);
     expect(shadingAt(grid, 90, 33)).toBeCloseTo(1, 6);
+  });
+});
+
+describe('value layers on the globe (survey figures)', () => {
+  // 2 x 4 cell centres: lat -45, 45; lon -135, -45, 45, 135. One cell without a value.
+  const layer = {
+    nLat: 2,
+    nLon: 4,
+    lat_deg: Float64Array.from([-45, 45]),
+    lon_deg: Float64Array.from([-135, -45, 45, 135]),
+    values: Float32Array.from([10, 20, 30, 40, 50, NaN, 70, 80]),
+    fraction: Float32Array.from([0, 1 / 7, 2 / 7, 3 / 7, 4 / 7, 0, 6 / 7, 1]),
+    min: 10,
+    max: 80,
+    unit: 'h',
+  };
+
+  it('is told apart from the Earth-visibility grid', () => {
+    expect(isValueLayer(layer)).toBe(true);
+    expect(isValueLayer({ ...layer, values: undefined })).toBe(false);
+    expect(shadingProblem({ ...layer, values: new Float32Array(3) })).toMatch(/values has 3 entries, expected 8/);
+  });
+
+  it('colours cell by cell (nearest centre, periodic in longitude), grey where there is no value', () => {
+    expect(nearestCell(layer, 10, 40)).toBe(6);
+    expect(nearestCell(layer, -80, 179)).toBe(3);
+    expect(nearestCell(layer, -80, -179)).toBe(0);
+    expect(shadingSurfaceColour(layer, 50, -50)).toEqual(NO_VALUE_RGB);
+    // Ends of the ramp are cividis' ends (d3-scale-chromatic).
+    const lo = parseCssRgb(interpolateCividis(0)).map((c) => c / 255);
+    const hi = parseCssRgb(interpolateCividis(1)).map((c) => c / 255);
+    expect(shadingSurfaceColour(layer, -40, -130)).toEqual(lo);
+    expect(shadingSurfaceColour(layer, 40, 130)).toEqual(hi);
   });
 });

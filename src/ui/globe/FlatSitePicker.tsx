@@ -1,6 +1,6 @@
 import { useEffect, useRef, type JSX } from 'react';
 import type { BodyName } from '../../core/types';
-import { BODY_COLOURS, BODY_ARTICLED, cssRgb, roundPick, shadingAt, shadingColour, type ShadingGrid } from './globeMath';
+import { BODY_COLOURS, BODY_ARTICLED, cssRgb, roundPick, shadingSurfaceColour, type ShadingGrid } from './globeMath';
 
 // The fallback when WebGL is off: the body as a flat latitude/longitude map
 // (east to the right), with the same grid, shading and site marker; a click picks.
@@ -34,7 +34,7 @@ export function FlatSitePicker(props: {
       const lat = 90 - ((j + 0.5) / h) * 180;
       for (let i = 0; i < w; i++) {
         const lon = -180 + ((i + 0.5) / w) * 360;
-        const col = shading ? shadingColour(shadingAt(shading, lat, lon)) : base;
+        const col = shading ? shadingSurfaceColour(shading, lat, lon) : base;
         const k = 4 * (j * w + i);
         img.data[k] = col[0] * 255;
         img.data[k + 1] = col[1] * 255;

@@ -10,8 +10,11 @@ import {
   latLonToScene,
   roundPick,
   sceneToLatLon,
-  shadingAt,
+  isValueLayer,
+  NO_VALUE_RGB,
   shadingColour,
+  shadingSurfaceColour,
+  valueColour,
   shadingProblem,
   type V3,
 } from './globeMath';
@@ -26,6 +29,15 @@ export interface GlobeShading {
   /** Row-major lat x lon, 0..1 (fraction of time the Earth is above the horizon). */
   fraction: Float32Array;
   label?: string;
+  /**
+   * Optional, for a value layer on any body (e.g. a survey figure from core/surveyLayer.ts, which has
+   * exactly these fields): raw values (NaN = none), their range and unit. Drawn cell by cell in cividis
+   * with a min-max legend; without them the grid is the Moon's Earth-visibility fraction.
+   */
+  values?: Float32Array;
+  min?: number;
+  max?: number;
+  unit?: string;
 }
 
 export interface SiteGlobeProps {
@@ -141,7 +153,7 @@ function paintSurface(geo: THREE.BufferGeometry, body: BodyName, shading: GlobeS
     let c = base;
     if (shading) {
       const [lat, lon] = sceneToLatLon([pos.getX(i), pos.getY(i), pos.getZ(i)]);
-      c = shadingColour(shadingAt(shading, lat, lon));
+      c = shadingSurfaceColour(shading, lat, lon);
     }
     // Our colours are sRGB (as in the CSS legend); three.js shades in linear light.
     colours[3 * i] = srgbToLinear(c[0]);
@@ -331,6 +343,38 @@ function ShadingLegend({ shading }: { shading: GlobeShading }): JSX.Element {
   );
 }
 
+function fmtValue(v: number, unit: string | undefined): string {
+  if (!Number.isFinite(v)) return '—';
+  const a = Math.abs(v);
+  const t = a >= 100 ? Math.round(v).toLocaleString('en-US') : Number(v.toPrecision(3)).toLocaleString('en-US', { maximumFractionDigits: 6 });
+  return unit ? `${t} ${unit}` : t;
+}
+
+function ValueLegend({ shading }: { shading: GlobeShading }): JSX.Element {
+  const stops = [0, 0.25, 0.5, 0.75, 1].map((t) => `${cssRgb(valueColour(t))} ${t * 100}%`).join(', ');
+  let missing = false;
+  const v = shading.values!;
+  for (let k = 0; k < v.length && !missing; k++) if (!Number.isFinite(v[k])) missing = true;
+  return (
+    <div className="globe-legend" data-testid="globe-value-legend" style={{ font: '12px/1.4 system-ui, sans-serif', marginTop: 4 }}>
+      <div>{shading.label ?? 'Value per site'}</div>
+      <div style={{ display: 'flex', alignItems: 'center', columnGap: 6, rowGap: 2, flexWrap: 'wrap' }}>
+        <span style={{ whiteSpace: 'nowrap' }}>
+          {fmtValue(shading.min!, shading.unit)}{' '}
+          <span aria-hidden="true" style={{ display: 'inline-block', width: 90, height: 12, background: `linear-gradient(to right, ${stops})`, border: '1px solid #555', verticalAlign: 'middle' }} />
+          {' '}{fmtValue(shading.max!, shading.unit)}
+        </span>
+        {missing && (
+          <span style={{ whiteSpace: 'nowrap' }}>
+            <span aria-hidden="true" style={{ display: 'inline-block', width: 14, height: 12, background: cssRgb(NO_VALUE_RGB), border: '1px solid #555', verticalAlign: 'middle', marginRight: 4 }} />
+            no value
+          </span>
+        )}
+      </div>
+    </div>
+  );
+}
+
 function ArrowLegend({ body, sun, earth }: { body: BodyName; sun: boolean; earth: boolean }): JSX.Element {
   const item = (colour: string, text: string) => (
     <span style={{ whiteSpace: 'nowrap' }}>
@@ -359,7 +403,8 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
   const [size, setSize] = useState(0);
   const [glError, setGlError] = useState<string | null>(() => (typeof document !== 'undefined' && !webglAvailable() ? 'WebGL is off' : null));
   const shadeIssue = shading ? shadingProblem(shading) : null;
-  const usedShading = body === 'moon' && shading && !shadeIssue ? shading : null;
+  // Earth visibility belongs to the Moon; a value layer (survey) may cover any body.
+  const usedShading = shading && !shadeIssue && (body === 'moon' || isValueLayer(shading)) ? shading : null;
 
   // Size: the parent's width, square.
   useEffect(() => {
@@ -529,7 +574,7 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
       )}
       {shadeIssue && <p role="status" style={{ font: '12px system-ui, sans-serif', color: '#a00' }}>Shading not shown: {shadeIssue}</p>}
       <ArrowLegend body={body} sun={!!sunDir} earth={body === 'moon' && !!earthDir} />
-      {usedShading && <ShadingLegend shading={usedShading} />}
+      {usedShading && (isValueLayer(usedShading) ? <ValueLegend shading={usedShading} /> : <ShadingLegend shading={usedShading} />)}
     </div>
   );
 }

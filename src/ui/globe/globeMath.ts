@@ -1,4 +1,6 @@
 import type { BodyName } from '../../core/types';
+import { interpolateCividis } from 'd3-scale-chromatic';
+import { parseCssRgb } from '../skymap/colour';
 
 // Pure helpers for the site globe: body-fixed <-> scene coordinates, the
 // Earth-visibility shading colours and lookups. No three.js or DOM here, so
@@ -84,6 +86,56 @@ export interface ShadingGrid {
   lat_deg: ArrayLike<number>;
   lon_deg: ArrayLike<number>;
   fraction: ArrayLike<number>;
+  /**
+   * A value layer (e.g. a survey figure, core/surveyLayer.ts) also gives the raw values (NaN = no value
+   * there) and their range; it is drawn cell by cell with a sequential colour map. Without these the
+   * grid is the Earth-visibility fraction, interpolated, with "never" in its own colour.
+   */
+  values?: ArrayLike<number>;
+  min?: number;
+  max?: number;
+  unit?: string;
+}
+
+export function isValueLayer(s: ShadingGrid): boolean {
+  return s.values !== undefined && s.min !== undefined && s.max !== undefined;
+}
+
+/** Index of the grid cell nearest to (lat, lon): nearest row centre, nearest column centre (periodic). */
+export function nearestCell(s: ShadingGrid, latDeg: number, lonDeg: number): number {
+  const { nLat, nLon, lat_deg, lon_deg } = s;
+  let bi = 0, bd = Infinity;
+  for (let i = 0; i < nLat; i++) {
+    const d = Math.abs(lat_deg[i] - latDeg);
+    if (d < bd) { bd = d; bi = i; }
+  }
+  let bj = 0;
+  bd = Infinity;
+  for (let j = 0; j < nLon; j++) {
+    let d = Math.abs(lon_deg[j] - lonDeg) % 360;
+    if (d > 180) d = 360 - d;
+    if (d < bd) { bd = d; bj = j; }
+  }
+  return bi * nLon + bj;
+}
+
+/** Grey for cells of a value layer without a value (not computed, e.g. another shard). */
+export const NO_VALUE_RGB: [number, number, number] = [0.42, 0.42, 0.42];
+
+/** Sequential colour (cividis, as the sky map) for a value layer's 0..1 position. */
+export function valueColour(t: number): [number, number, number] {
+  const [r, g, b] = parseCssRgb(interpolateCividis(Math.min(1, Math.max(0, t))));
+  return [r / 255, g / 255, b / 255];
+}
+
+/** Surface colour at (lat, lon) for either kind of shading grid. */
+export function shadingSurfaceColour(s: ShadingGrid, latDeg: number, lonDeg: number): [number, number, number] {
+  if (isValueLayer(s)) {
+    const k = nearestCell(s, latDeg, lonDeg);
+    const v = s.values![k];
+    return Number.isFinite(v) ? valueColour(s.fraction[k]) : NO_VALUE_RGB;
+  }
+  return shadingColour(shadingAt(s, latDeg, lonDeg));
 }
 
 /** Checks a shading grid's shape; returns a message naming what is wrong, or null. */
@@ -92,6 +144,7 @@ export function shadingProblem(s: ShadingGrid): string | null {
   if (s.lat_deg.length !== s.nLat) return `shading lat_deg has ${s.lat_deg.length} entries, nLat is ${s.nLat}`;
   if (s.lon_deg.length !== s.nLon) return `shading lon_deg has ${s.lon_deg.length} entries, nLon is ${s.nLon}`;
   if (s.fraction.length !== s.nLat * s.nLon) return `shading fraction has ${s.fraction.length} entries, expected ${s.nLat * s.nLon}`;
+  if (s.values !== undefined && s.values.length !== s.nLat * s.nLon) return `shading values has ${s.values.length} entries, expected ${s.nLat * s.nLon}`;
   return null;
 }
 
