@@ -21,21 +21,21 @@ export function ViewControls(p: {
           </label>
         ))}
       </div>
-      <label>
-        Frame{' '}
-        <select value={p.frame} onChange={(e) => p.onFrame(e.target.value as SkyFrame)} aria-label="Frame">
-          <option value="equatorial">Equatorial (RA, Dec)</option>
-          <option value="galactic">Galactic (l, b)</option>
-          <option value="ecliptic">Ecliptic (λ, β)</option>
-        </select>
-      </label>
-      <label>
-        Scale{' '}
-        <select value={p.scale} onChange={(e) => p.onScale(e.target.value as SkyScale)} aria-label="Colour scale">
-          <option value="linear">Linear</option>
-          <option value="log">Logarithmic</option>
-        </select>
-      </label>
+      <span className="ctl">
+      <label htmlFor="view-frame">Frame</label>
+      <select id="view-frame" value={p.frame} onChange={(e) => p.onFrame(e.target.value as SkyFrame)}>
+        <option value="equatorial">Equatorial (RA, Dec)</option>
+        <option value="galactic">Galactic (l, b)</option>
+        <option value="ecliptic">Ecliptic (λ, β)</option>
+      </select>
+      </span>
+      <span className="ctl">
+      <label htmlFor="view-scale">Colour scale</label>
+      <select id="view-scale" value={p.scale} onChange={(e) => p.onScale(e.target.value as SkyScale)}>
+        <option value="linear">Linear</option>
+        <option value="log">Logarithmic</option>
+      </select>
+      </span>
       <label className="check" title="Astronomical convention is longitude increasing to the left">
         <input type="checkbox" checked={p.flip} onChange={(e) => p.onFlip(e.target.checked)} /> Longitude increasing to the right
       </label>

@@ -117,26 +117,12 @@ export function ScenarioPanel({ draft, issues, onChange }: {
 
       <fieldset>
         <legend>Usable time</legend>
-        <div className="constraint">
-          <label className="check">
-            <input type="checkbox" checked={draft.sunOn} onChange={(e) => onChange({ sunOn: e.target.checked })} /> Sun below
-          </label>
-          <Field label={<span className="sr-only">Sun maximum elevation (degrees)</span>} messages={issues.get('constraints.sun_max_elev_deg')} className="inline">
-            {(p) => <input {...p} inputMode="decimal" value={draft.sunMax} disabled={!draft.sunOn} onChange={(e) => onChange({ sunMax: e.target.value })} />}
-          </Field>
-          <span className="unit">° elevation</span>
-        </div>
-        <div className="constraint">
-          <label className="check">
-            <input type="checkbox" checked={draft.body !== 'earth' && draft.earthOn} disabled={draft.body === 'earth'}
-              onChange={(e) => onChange({ earthOn: e.target.checked })} /> Earth below
-          </label>
-          <Field label={<span className="sr-only">Earth maximum elevation (degrees)</span>} messages={issues.get('constraints.earth_max_elev_deg')} className="inline">
-            {(p) => <input {...p} inputMode="decimal" value={draft.earthMax} disabled={draft.body === 'earth' || !draft.earthOn}
-              onChange={(e) => onChange({ earthMax: e.target.value })} />}
-          </Field>
-          <span className="unit">° elevation{draft.body === 'earth' ? ' (not for a site on the Earth)' : ''}</span>
-        </div>
+        <Constraint what="Sun" on={draft.sunOn} value={draft.sunMax} messages={issues.get('constraints.sun_max_elev_deg')}
+          onToggle={(v) => onChange({ sunOn: v })} onValue={(v) => onChange({ sunMax: v })} />
+        <Constraint what="Earth" on={draft.body !== 'earth' && draft.earthOn} value={draft.earthMax} disabled={draft.body === 'earth'}
+          note={draft.body === 'earth' ? 'not for a site on the Earth' : undefined}
+          messages={issues.get('constraints.earth_max_elev_deg')}
+          onToggle={(v) => onChange({ earthOn: v })} onValue={(v) => onChange({ earthMax: v })} />
         <HorizonMask draft={draft} issues={issues} onChange={onChange} />
       </fieldset>
 
@@ -159,5 +145,23 @@ export function ScenarioPanel({ draft, issues, onChange }: {
         </div>
       </fieldset>
     </form>
+  );
+}
+
+/** "Sun below [0] deg" : usable only while that body's centre is lower than the value. */
+function Constraint({ what, on, value, disabled, note, messages, onToggle, onValue }: {
+  what: string; on: boolean; value: string; disabled?: boolean; note?: string; messages: string[];
+  onToggle: (v: boolean) => void; onValue: (v: string) => void;
+}) {
+  return (
+    <div className={`constraint${messages.length ? ' invalid' : ''}`}>
+      <label className="check">
+        <input type="checkbox" checked={on} disabled={disabled} onChange={(e) => onToggle(e.target.checked)} /> {what} below
+      </label>
+      <input aria-label={`${what} maximum elevation (degrees)`} inputMode="decimal" value={value} disabled={disabled || !on}
+        aria-invalid={messages.length > 0} onChange={(e) => onValue(e.target.value)} />
+      <span className="unit">° elevation{note ? ` (${note})` : ''}</span>
+      {messages.length > 0 && <span className="field-msg" role="alert">{messages.join(' ')}</span>}
+    </div>
   );
 }

@@ -6,11 +6,12 @@ import { fixed, hours, percent, sig, wavelength } from '../format';
 export function ResultsTable({ result, selected, onSelect }: { result: PlanResult; selected: number; onSelect: (i: number) => void }) {
   const s = result.summary;
   return (
-    <div className="table-wrap">
-      <table className="results" data-testid="results-table">
-        <caption>
-          Per-frequency coverage over {hours(s.hours.total)} h of span, {hours(s.hours.usable)} h usable
-        </caption>
+    <div>
+      <p className="table-cap" id="results-cap">
+        Per-frequency coverage over {hours(s.hours.total)} h of span, {hours(s.hours.usable)} h usable
+      </p>
+      <div className="table-wrap" tabIndex={0} role="region" aria-labelledby="results-cap">
+      <table className="results" data-testid="results-table" aria-labelledby="results-cap">
         <thead>
           <tr>
             <th scope="col">Frequency</th>
@@ -56,6 +57,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
           ))}
         </tbody>
       </table>
+      </div>
       <p className="table-note">
         Zenith declination {fixed(s.zenith.dec_min_deg, 2)}° to {fixed(s.zenith.dec_max_deg, 2)}°; ecliptic latitude{' '}
         {fixed(s.zenith.ecl_lat_min_deg, 2)}° to {fixed(s.zenith.ecl_lat_max_deg, 2)}°. Sun down {hours(s.hours.sun_down)} h

@@ -164,11 +164,11 @@ export function Timeline({ result, scrubMs, markers }: { result: PlanResult; scr
       <figcaption>
         <span className="fig-title">Timeline, {utcMinute(t.t0_ms)} to {utcMinute(t.end_ms)}</span>
         <span className="legend-items">
-          <span className="key key-line" /> zenith galactic latitude b
-          <span className="key key-usable" /> usable time
-          <span className="key key-band" /> galactic band |b| &lt; {band}°
-          {showSun && (<><span className="key key-sun" /> Sun elevation</>)}
-          {showEarth && hasEarth && (<><span className="key key-earth" /> Earth elevation</>)}
+          <span className="li"><span className="key key-line" /> zenith galactic latitude b</span>
+          <span className="li"><span className="key key-usable" /> usable time</span>
+          <span className="li"><span className="key key-band" /> galactic band |b| &lt; {band}°</span>
+          {showSun && <span className="li"><span className="key key-sun" /> Sun elevation</span>}
+          {showEarth && hasEarth && <span className="li"><span className="key key-earth" /> Earth elevation</span>}
         </span>
         <span className="toggles">
           <label><input type="checkbox" checked={showSun} onChange={(e) => setShowSun(e.target.checked)} /> Sun elevation</label>
