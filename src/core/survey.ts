@@ -468,16 +468,16 @@ function groupNsideFor(hitNside: number, maxRadRad: number): number {
 }
 
 /**
- * Exposure (hours) at the RING pixels flagged in `sel`, by the plan's
+ * Exposure (hours) at the RING pixels listed (ascending), by the plan's
  * arithmetic (coverage.ts exposureStage: hit map degraded to FWHM/6,
  * centroids, the tabulated beam, contributions beyond the cutoff dropped), so
  * a selected pixel gets the plan's value up to the order of the sums.
  */
-function* exposureAtStage(hit: HitMap, beam: BeamProfile, nside: number, sel: Uint8Array): Stage<Float64Array> {
+function* exposureAtStage(hit: HitMap, beam: BeamProfile, nside: number, list: Int32Array): Stage<Float64Array> {
   const level = Math.min(hit.nside, nsideForResolution(beam.fwhmRad / EXPOSURE_HIT_PER_FWHM));
   const h = degradeHitMap(hit, level);
   const { uMax, scale, values } = cachedBeamTable(beam);
-  const acc = new Float64Array(nside2npix(nside));
+  const acc = new Float64Array(list.length);
   const cen = centroidsOf(h);
   // Gather: few selected pixels, so each one tests every group of hit pixels
   // (groups about as wide as the beam cutoff) and sums the groups in reach.
@@ -491,8 +491,6 @@ function* exposureAtStage(hit: HitMap, beam: BeamProfile, nside: number, sel: Ui
   }
   const reach = beam.cutoffRad + maxPixradRad(groupNside);
   const cosReach = reach >= Math.PI ? -2 : Math.cos(reach);
-  const list: number[] = [];
-  for (let q = 0; q < sel.length; q++) if (sel[q]) list.push(q);
   const scratch = { buf: new Float64Array(0) };
   let work = 0;
   for (let i = 0; i < list.length; i++) {
@@ -515,7 +513,7 @@ function* exposureAtStage(hit: HitMap, beam: BeamProfile, nside: number, sel: Ui
       total += sum;
       work += k1 - k0;
     }
-    acc[q] = total;
+    acc[i] = total;
     work += groups >> 2;
     if (work >= 100_000) { work = 0; yield i / list.length; }
   }
@@ -534,19 +532,18 @@ function* noiseMedianStage(
   if (ncov === 0) return NaN; // as the plan: no covered pixel, no median
   const m = Math.max(1, Math.floor(ncov / target));
   const pick = m >> 1;
-  const sel = new Uint8Array(covered.length);
-  let rank = 0;
+  const list = new Int32Array(Math.ceil(ncov / m));
+  let rank = 0, n = 0;
   for (let q = 0; q < covered.length; q++) {
     if (!covered[q]) continue;
-    if (rank % m === pick) sel[q] = 1;
+    if (rank % m === pick) list[n++] = q;
     rank++;
   }
-  const acc = yield* exposureAtStage(hit, beam, nside, sel);
+  const acc = yield* exposureAtStage(hit, beam, nside, list.subarray(0, n));
   const kk = tSysK / Math.sqrt(bandwidthMHz * 1e6 * 3600);
   const vals: number[] = [];
-  for (let q = 0; q < sel.length; q++) {
-    if (!sel[q]) continue;
-    const e = Math.fround(acc[q]); // the plan's exposure map is float32
+  for (let i = 0; i < n; i++) {
+    const e = Math.fround(acc[i]); // the plan's exposure map is float32
     if (e > 0) vals.push(kk / Math.sqrt(e));
   }
   const v = Float32Array.from(vals);
