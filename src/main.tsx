@@ -1,4 +1,4 @@
-import { StrictMode, Component, type ReactNode } from 'react';
+import { Component, type ReactNode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './ui/App';
 import './ui/styles.css';
@@ -24,10 +24,10 @@ class Guard extends Component<{ children: ReactNode }, { error: Error | null }> 
   }
 }
 
+// No StrictMode: its dev-only double mount tears down the worker, the WebGL
+// renderer and the map caches, so `npm start` would differ from the build.
 createRoot(document.getElementById('root')!).render(
-  <StrictMode>
-    <Guard>
-      <App />
-    </Guard>
-  </StrictMode>,
+  <Guard>
+    <App />
+  </Guard>,
 );

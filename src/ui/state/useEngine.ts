@@ -42,7 +42,16 @@ export function useEngine(): EngineState & { run: (s: Scenario) => void; cancel:
     }
   }, []);
 
-  useEffect(() => () => drop(), [drop]);
+  // Dispose the worker only on a real unmount. React StrictMode (vite dev)
+  // unmounts and remounts at once; dropping then would cancel the first run.
+  const mounted = useRef(false);
+  useEffect(() => {
+    mounted.current = true;
+    return () => {
+      mounted.current = false;
+      setTimeout(() => { if (!mounted.current) drop(); }, 0);
+    };
+  }, [drop]);
 
   const run = useCallback((s: Scenario) => {
     const id = ++runId.current;
