@@ -600,6 +600,7 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   const lean = !s.constraints.horizon_mask || s.constraints.horizon_mask.length === 0;
 
   let ib: InterpolatedBody | null = null;
+  let lastRow: RowSamples | null = null;
   let q = 0;
   const progress = (f: number) => Math.min(1, (q + f) / held);
   while (q < held) {
@@ -615,10 +616,14 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
         while (!rn.done) { yield progress(0); rn = ns.next(); }
         ib = new InterpolatedBody(body, rn.value.rot, rn.value.vec);
       }
-      const st = rowSamplesStage(ib, rg);
-      let r = st.next();
-      while (!r.done) { yield progress(0); r = st.next(); }
-      shared = r.value;
+      // rows on the same sample times (a fixed step) share one table
+      if (lastRow && lastRow.grid.n === rg.n && lastRow.grid.step_min === rg.step_min) shared = lastRow;
+      else {
+        const st = rowSamplesStage(ib, rg);
+        let r = st.next();
+        while (!r.done) { yield progress(0); r = st.next(); }
+        shared = lastRow = r.value;
+      }
       tr = zenithTrack(body, rg, shared.weight);
       usable = new Uint8Array(rg.n);
     }

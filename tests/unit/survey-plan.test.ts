@@ -58,6 +58,14 @@ describe('survey figures equal a direct plan of each site (within 1%)', () => {
     expect(someNot).toBeGreaterThan(0);
   });
 
+  it('Moon with a fixed step (every row on the same sample times, one shared table)', async () => {
+    const s: Scenario = { ...DEMO_SCENARIO, span: { start: '2031-03-01T00:00:00Z', end: '2031-04-20T00:00:00Z', step_min: 30 }, map: { ...DEMO_SCENARIO.map, nside: 64 } };
+    const sites = [2 * 24 + 23, 5 * 24 + 14, 9 * 24 + 1];
+    const r = computeSurvey(s, { stepDeg: 15, sites });
+    for (let q = 0; q < sites.length; q++) expectSiteMatchesPlan(r, q, await planOf(s, r, q));
+    expect(Array.from(r.step_min_by_row).every((x) => x === 30)).toBe(true);
+  });
+
   it('Earth transit dish with a Sun limit (geodetic site, no Earth constraint)', async () => {
     const s: Scenario = {
       format: 'swathe.scenario/1', name: 'survey test: invented transit dish',
