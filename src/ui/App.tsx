@@ -8,7 +8,10 @@ import { ScenarioPanel } from './panel/ScenarioPanel';
 import { ResultsTable } from './results/ResultsTable';
 import { Timeline } from './results/Timeline';
 import { ExportBar } from './exports/ExportBar';
-import { GlobePane } from './GlobePane';
+import { GlobePane, type SiteSample } from './GlobePane';
+import { TimeScrubber } from './scrub/TimeScrubber';
+import { gcCrossings } from './scrub/gcCrossings';
+import { ComparePanel } from './compare/ComparePanel';
 import { RunBar } from './RunBar';
 import { ViewControls } from './ViewControls';
 import { IssueIndex, draftToCandidate, scenarioToDraft, type Draft } from './state/draft';
@@ -38,6 +41,10 @@ export function App() {
   const [compare, setCompare] = useState(false);
   const [mapRef, mapWidth] = useWidth<HTMLDivElement>(900);
   const importRef = useRef<HTMLInputElement>(null);
+  const [scrubOn, setScrubOn] = useState(false);
+  const [scrubIndex, setScrubIndex] = useState(0);
+  const [pinned, setPinned] = useState<PlanResult | null>(null);
+  const [showDiff, setShowDiff] = useState(false);
 
   const parsed = useMemo(() => parseScenario(draftToCandidate(draft)), [draft]);
   const scenario: Scenario | null = parsed.ok ? parsed.scenario : null;
@@ -81,6 +88,30 @@ export function App() {
   const nFreq = result ? result.maps.length : 0;
   const fi = Math.min(freqIndex, Math.max(0, nFreq - 1));
   const stale = result !== null && key !== null && key !== resultKey;
+
+  // time scrubber: one track sample drives the beam marker, the globe arrows and the timeline cursor
+  const si = result ? Math.min(scrubIndex, result.track.n - 1) : 0;
+  const crossings = useMemo(
+    () => (result ? gcCrossings(result.track, result.scenario.map.galactic_center_radius_deg) : []),
+    [result],
+  );
+  const scrub = useMemo(() => {
+    if (!result || !scrubOn) return null;
+    const t = result.track;
+    const sample: SiteSample = {
+      ms: t.t0_ms + si * t.step_min * 60_000,
+      sunAz: t.sun_az_deg[si], sunEl: t.sun_elev_deg[si],
+      earthAz: t.earth_az_deg ? t.earth_az_deg[si] : null, earthEl: t.earth_elev_deg ? t.earth_elev_deg[si] : null,
+    };
+    return { sample, beamAt: { ra_deg: t.ra_deg[si], dec_deg: t.dec_deg[si], usable: result.usable[si] === 1 } };
+  }, [result, scrubOn, si]);
+
+  // comparison: the pinned result is A, the current one B; a difference map needs the same frequencies and nside
+  const diffOk = pinned !== null && result !== null && pinned !== result &&
+    pinned.scenario.map.nside === result.scenario.map.nside &&
+    pinned.scenario.telescope.frequencies_mhz.join(',') === result.scenario.telescope.frequencies_mhz.join(',');
+  const diffOn = showDiff && diffOk;
+  const diff = useMemo(() => (diffOn && result ? { other: result, labelA: 'A', labelB: 'B' } : null), [diffOn, result]);
 
   const importFile = async (file: File) => {
     let text: string;
@@ -164,20 +195,45 @@ export function App() {
                     flip={flip} onFlip={setFlip}
                     compare={compare} onCompare={setCompare}
                   />
+                  <div className="tools" role="group" aria-label="Time and comparison">
+                    <label className="check">
+                      <input type="checkbox" checked={scrubOn} onChange={(e) => setScrubOn(e.target.checked)} /> Time scrubber
+                    </label>
+                    <button type="button" className="small" onClick={() => { setPinned(result); setShowDiff(false); }}
+                      disabled={pinned === result} title="Keep this result as plan A, then change the scenario to get plan B">
+                      {pinned === result ? 'Pinned as A' : pinned ? 'Pin this result as A (replace)' : 'Pin this result as A'}
+                    </button>
+                    {pinned && (
+                      <label className="check" title={diffOk ? 'Exposure of B minus A at the selected frequency' : 'Needs a different plan B with the same frequencies and nside'}>
+                        <input type="checkbox" checked={diffOn} disabled={!diffOk} onChange={(e) => setShowDiff(e.target.checked)} /> Map B − A
+                      </label>
+                    )}
+                  </div>
+                  {scrubOn && <TimeScrubber result={result} index={si} onIndex={setScrubIndex} crossings={crossings} />}
                   <div className="map-box" ref={mapRef}>
-                    <SkyMap result={result} freqIndex={fi} frame={frame} scale={scale} flipLongitude={flip} compare={compare} />
+                    {diffOn && pinned ? (
+                      <SkyMap result={pinned} freqIndex={fi} frame={frame} scale={scale} flipLongitude={flip} compare={false}
+                        diff={diff} beamAt={scrub?.beamAt ?? null} />
+                    ) : (
+                      <SkyMap result={result} freqIndex={fi} frame={frame} scale={scale} flipLongitude={flip} compare={compare}
+                        beamAt={scrub?.beamAt ?? null} />
+                    )}
                   </div>
                 </div>
                 <div className="globe-col">
-                  <GlobePane draft={draft} scenario={scenario ?? result.scenario} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
+                  <GlobePane draft={draft} scenario={scenario ?? result.scenario} sample={scrub?.sample ?? null} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
                 </div>
               </section>
-              <ExportBar result={result} view={{ freqIndex: fi, frame, scale, flipLongitude: flip, compare }} mapWidth={mapWidth} />
+              <ExportBar result={result} pngBase={diffOn && pinned ? pinned : result} mapWidth={mapWidth}
+                view={{ freqIndex: fi, frame, scale, flipLongitude: flip, compare: diffOn ? false : compare, beamAt: scrub?.beamAt ?? null, diff }} />
               <section className="results-sec" aria-labelledby="results-head">
                 <h2 id="results-head">Results</h2>
                 <ResultsTable result={result} selected={fi} onSelect={setFreqIndex} />
-                <Timeline result={result} />
+                <Timeline result={result} scrubMs={scrub ? scrub.sample.ms : null} markers={crossings} />
               </section>
+              {pinned && pinned !== result && (
+                <ComparePanel a={pinned} b={result} freqIndex={fi} onSelect={setFreqIndex} onUnpin={() => { setPinned(null); setShowDiff(false); }} />
+              )}
             </>
           ) : (
             <section className="placeholder" aria-live="polite">

@@ -26,11 +26,15 @@ export function localToBodyFixed(latDeg: number, lonDeg: number, azDeg: number, 
   return [e * east[0] + n * north[0] + u * up[0], e * east[1] + n * north[1] + u * up[1], e * east[2] + n * north[2] + u * up[2]];
 }
 
-export function GlobePane({ draft, scenario, onPick, atMs, shadingReady = true }: {
+/** Sun/Earth seen from the site at one track sample (the time scrubber). */
+export interface SiteSample { ms: number; sunAz: number; sunEl: number; earthAz: number | null; earthEl: number | null }
+
+export function GlobePane({ draft, scenario, onPick, atMs, sample, shadingReady = true }: {
   draft: Draft;
   scenario: Scenario | null;
   onPick: (lat: number, lon: number) => void;
   atMs?: number | null;
+  sample?: SiteSample | null;
   /** false until the first plan result is in, so the shading worker does not slow the first map */
   shadingReady?: boolean;
 }) {
@@ -40,10 +44,20 @@ export function GlobePane({ draft, scenario, onPick, atMs, shadingReady = true }
   const lon = Number.isFinite(lonN) ? lonN : (scenario?.site.lon_deg ?? 0);
   const body = draft.body;
   const startMs = scenario ? parseUtcMs(scenario.span.start) : null;
-  const t = atMs ?? startMs;
+  const t = sample ? sample.ms : (atMs ?? startMs);
 
   const dirs = useMemo(() => {
     if (!scenario || t === null || scenario.site.body !== body) return { sun: null, earth: null, err: null as string | null };
+    if (sample) {
+      const sLat = scenario.site.lat_deg, sLon = scenario.site.lon_deg;
+      return {
+        sun: localToBodyFixed(sLat, sLon, sample.sunAz, sample.sunEl),
+        earth: sample.earthAz !== null && sample.earthEl !== null ? localToBodyFixed(sLat, sLon, sample.earthAz, sample.earthEl) : null,
+        sunElev: sample.sunEl,
+        earthElev: sample.earthEl,
+        err: null,
+      };
+    }
     try {
       const st = siteStateAt(scenario, t);
       const sLat = scenario.site.lat_deg, sLon = scenario.site.lon_deg;
@@ -57,7 +71,7 @@ export function GlobePane({ draft, scenario, onPick, atMs, shadingReady = true }
     } catch (e) {
       return { sun: null, earth: null, err: e instanceof Error ? e.message : String(e) };
     }
-  }, [scenario, t, body]);
+  }, [scenario, t, body, sample]);
 
   const [shading, setShading] = useState<GlobeShading | null>(null);
   const [shadeMsg, setShadeMsg] = useState<string | null>(null);

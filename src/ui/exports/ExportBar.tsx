@@ -10,9 +10,14 @@ import { downloadBlob, downloadText, fileStem } from './download';
 
 // One button per file; each builds its file from the result on screen.
 
-export interface ViewState { freqIndex: number; frame: SkyFrame; scale: SkyScale; flipLongitude: boolean; compare: boolean }
+export interface ViewState {
+  freqIndex: number; frame: SkyFrame; scale: SkyScale; flipLongitude: boolean; compare: boolean;
+  beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
+  diff?: { other: PlanResult; labelA: string; labelB: string } | null;
+}
 
-export function ExportBar({ result, view, mapWidth }: { result: PlanResult; view: ViewState; mapWidth: number }) {
+/** `pngBase`: the plan the figure is drawn from (plan A in difference mode, else `result`). */
+export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanResult; pngBase?: PlanResult; view: ViewState; mapWidth: number }) {
   const [busy, setBusy] = useState<string | null>(null);
   const [msg, setMsg] = useState<string | null>(null);
   const stem = fileStem(result.scenario.name);
@@ -36,9 +41,14 @@ export function ExportBar({ result, view, mapWidth }: { result: PlanResult; view
       desc: `sky map figure at ${f} MHz with colour bar, legend and caption`,
       run: async () => {
         const widthPx = Math.max(1600, Math.round(2 * mapWidth));
-        const title = `${result.scenario.name || 'Swathe scenario'} — ${view.compare ? 'half-power tracks of all frequencies' : `exposure at ${f} MHz`}`;
-        const blob = await renderSkyMapPng(result, { ...view, widthPx, title, caption: scenarioCaption(result.scenario, view.freqIndex) });
-        downloadBlob(blob, `${stem}-${view.compare ? 'compare' : `${f}mhz`}-${view.frame}.png`);
+        const what = view.diff ? `exposure difference B − A at ${f} MHz` : view.compare ? 'half-power outlines of all frequencies' : `exposure at ${f} MHz`;
+        const title = `${result.scenario.name || 'Swathe scenario'} — ${what}`;
+        const base = pngBase ?? result;
+        const caption = view.diff
+          ? `A: ${scenarioCaption(base.scenario, view.freqIndex)} B: ${scenarioCaption(result.scenario, view.freqIndex)}`
+          : scenarioCaption(result.scenario, view.freqIndex);
+        const blob = await renderSkyMapPng(base, { ...view, widthPx, title, caption });
+        downloadBlob(blob, `${stem}-${view.diff ? 'diff-' : ''}${view.compare ? 'compare' : `${f}mhz`}-${view.frame}.png`);
       },
     },
     { label: 'Download CSV', desc: 'coverage.csv: exposure per HEALPix pixel, every frequency', run: () => downloadText(coverageCsv(result), `${stem}-coverage.csv`, 'text/csv') },

@@ -1,3 +1,4 @@
+import { useId } from 'react';
 import type { PlanResult } from '../../core/types';
 import { fixed, hours, percent, sig, wavelength } from '../format';
 
@@ -5,13 +6,14 @@ import { fixed, hours, percent, sig, wavelength } from '../format';
 
 export function ResultsTable({ result, selected, onSelect }: { result: PlanResult; selected: number; onSelect: (i: number) => void }) {
   const s = result.summary;
+  const capId = useId();
   return (
     <div>
-      <p className="table-cap" id="results-cap">
+      <p className="table-cap" id={capId}>
         Per-frequency coverage over {hours(s.hours.total)} h of span, {hours(s.hours.usable)} h usable
       </p>
-      <div className="table-wrap" tabIndex={0} role="region" aria-labelledby="results-cap">
-      <table className="results" data-testid="results-table" aria-labelledby="results-cap">
+      <div className="table-wrap" tabIndex={0} role="region" aria-labelledby={capId}>
+      <table className="results" data-testid="results-table" aria-labelledby={capId}>
         <thead>
           <tr>
             <th scope="col">Frequency</th>

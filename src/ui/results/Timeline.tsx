@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { PlanResult } from '../../core/types';
 import { useWidth } from '../useWidth';
 import { utcDay, utcMinute } from '../format';
@@ -65,6 +65,8 @@ export function Timeline({ result, scrubMs, markers }: { result: PlanResult; scr
   const [showEarth, setShowEarth] = useState(false);
   const hasEarth = result.track.earth_elev_deg !== null;
   const band = result.scenario.map.galactic_band_deg;
+  // decimated once per result and width; the scrubber cursor only redraws
+  const cols = useMemo(() => decimate(result, Math.floor(Math.max(10, width - PAD.l - PAD.r))), [result, width]);
 
   useEffect(() => {
     const cv = canvasRef.current;
@@ -78,7 +80,6 @@ export function Timeline({ result, scrubMs, markers }: { result: PlanResult; scr
     g.clearRect(0, 0, width, H);
     const pw = Math.max(10, width - PAD.l - PAD.r);
     const ph = H - PAD.t - PAD.b;
-    const cols = decimate(result, Math.floor(pw));
     const y = (deg: number) => PAD.t + ((90 - deg) / 180) * ph;
     const t = result.track;
 
@@ -156,7 +157,7 @@ export function Timeline({ result, scrubMs, markers }: { result: PlanResult; scr
     g.strokeStyle = '#8a94a3';
     g.strokeRect(PAD.l + 0.5, PAD.t + 0.5, pw - 1, ph - 1);
     cv.dataset.drawCount = String(Number(cv.dataset.drawCount ?? 0) + 1);
-  }, [result, width, showSun, showEarth, band, scrubMs, markers]);
+  }, [result, cols, width, showSun, showEarth, band, scrubMs, markers]);
 
   const t = result.track;
   return (
@@ -169,6 +170,7 @@ export function Timeline({ result, scrubMs, markers }: { result: PlanResult; scr
           <span className="li"><span className="key key-band" /> galactic band |b| &lt; {band}°</span>
           {showSun && <span className="li"><span className="key key-sun" /> Sun elevation</span>}
           {showEarth && hasEarth && <span className="li"><span className="key key-earth" /> Earth elevation</span>}
+          {markers && markers.length > 0 && <span className="li"><span className="key-tri">▼</span> galactic-centre passage</span>}
         </span>
         <span className="toggles">
           <label><input type="checkbox" checked={showSun} onChange={(e) => setShowSun(e.target.checked)} /> Sun elevation</label>
