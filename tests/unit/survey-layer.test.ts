@@ -80,5 +80,18 @@ describe('survey engine entry', () => {
     await expect(eng.run(s, { stepDeg: 0.5 })).rejects.toThrow(/step_deg must be between 1 and 15/);
     eng.dispose();
     await expect(eng.run(s, { stepDeg: 15 })).rejects.toThrow(/disposed/);
+    // three workers, each with every third site, combine to the one-worker result
+    const three = createSurveyEngine(fake, { workers: 3 });
+    const sites = [100, 101, 102, 140, 170];
+    const seen: number[] = [];
+    const a = await three.run(s, { stepDeg: 15, sites }, (f) => seen.push(f));
+    const b = computeSurvey(s, { stepDeg: 15, sites });
+    expect(Array.from(a.result.sites)).toEqual(sites);
+    expect(Array.from(a.result.frequencies[1].sky_fraction_covered)).toEqual(Array.from(b.frequencies[1].sky_fraction_covered));
+    expect(Array.from(a.result.usable_h)).toEqual(Array.from(b.usable_h));
+    expect(a.layers.length).toBe(surveyLayers(b).length);
+    expect(seen.every((f) => f >= 0 && f <= 1)).toBe(true);
+    await expect(three.run(s, { stepDeg: 20 })).rejects.toThrow(/step_deg must be between 1 and 15/);
+    three.dispose();
   });
 });
