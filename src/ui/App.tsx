@@ -176,10 +176,10 @@ export function App() {
             onCompute={() => scenario && runnable && start(scenario)}
             longRun={estimate !== null && estimate.seconds_estimate > AUTO_RUN_MAX_S}
           />
-          {result ? (
-            <>
-              <section className="view" aria-label="Sky map and site">
-                <div className="map-col">
+          <section className="view" aria-label="Sky map and site">
+            <div className="map-col" ref={mapRef}>
+              {result ? (
+                <>
                   <h2 className="result-title" data-testid="result-title">
                     <span>{result.scenario.name || 'Untitled scenario'}</span>
                     <span className="sub">
@@ -210,7 +210,7 @@ export function App() {
                     )}
                   </div>
                   {scrubOn && <TimeScrubber result={result} index={si} onIndex={setScrubIndex} crossings={crossings} />}
-                  <div className="map-box" ref={mapRef}>
+                  <div className="map-box">
                     {diffOn && pinned ? (
                       <SkyMap result={pinned} freqIndex={fi} frame={frame} scale={scale} flipLongitude={flip} compare={false}
                         diff={diff} beamAt={scrub?.beamAt ?? null} />
@@ -219,11 +219,21 @@ export function App() {
                         beamAt={scrub?.beamAt ?? null} />
                     )}
                   </div>
+                </>
+              ) : (
+                <div className="placeholder" aria-live="polite">
+                  {engine.running ? <p>Computing the first map…</p> : <p>No result yet. {runnable ? 'Press Compute.' : 'Fix the marked fields in the scenario panel.'}</p>}
                 </div>
-                <div className="globe-col">
-                  <GlobePane draft={draft} scenario={scenario ?? result.scenario} sample={scrub?.sample ?? null} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
-                </div>
-              </section>
+              )}
+            </div>
+            <div className="globe-col">
+              {/* always mounted, so the globe is not rebuilt when the first result arrives */}
+              <GlobePane draft={draft} scenario={scenario ?? result?.scenario ?? null} sample={scrub?.sample ?? null}
+                shadingReady={result !== null} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
+            </div>
+          </section>
+          {result && (
+            <>
               <ExportBar result={result} pngBase={diffOn && pinned ? pinned : result} mapWidth={mapWidth}
                 view={{ freqIndex: fi, frame, scale, flipLongitude: flip, compare: diffOn ? false : compare, beamAt: scrub?.beamAt ?? null, diff }} />
               <section className="results-sec" aria-labelledby="results-head">
@@ -235,13 +245,6 @@ export function App() {
                 <ComparePanel a={pinned} b={result} freqIndex={fi} onSelect={setFreqIndex} onUnpin={() => { setPinned(null); setShowDiff(false); }} />
               )}
             </>
-          ) : (
-            <section className="placeholder" aria-live="polite">
-              {engine.running ? <p>Computing the first map…</p> : <p>No result yet. {runnable ? 'Press Compute.' : 'Fix the marked fields in the scenario panel.'}</p>}
-              <div className="globe-col solo">
-                <GlobePane draft={draft} scenario={scenario} shadingReady={false} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
-              </div>
-            </section>
           )}
           <footer className="foot">
             <p><strong>{PLANNING_NOTE}</strong></p>
