@@ -108,16 +108,16 @@ function sameJson(a: unknown, b: unknown): boolean {
 
 /**
  * The track of `prev` serves `s` when the site and span are the same and its
- * step is what `s` asks for; with the automatic step (which follows the
- * narrowest beam) a track at least as fine also serves, so switching
- * frequencies recomputes the ephemeris only when the step must get finer.
- * The summary reports the step actually used.
+ * step is exactly the one a fresh run of `s` would use. With the automatic
+ * step (which follows the narrowest beam) that keeps the track across edits of
+ * any frequency but the highest; a finer track is not kept, so the app's
+ * figures always equal a fresh `swathe plan` of the same scenario.
  */
 function trackReusable(prev: PlanResult, s: Scenario): boolean {
   const p = prev.scenario;
   if (!sameJson(p.site, s.site) || p.span.start !== s.span.start || p.span.end !== s.span.end) return false;
   if (s.span.step_min !== null) return prev.track.step_min === s.span.step_min;
-  return p.span.step_min === null && prev.track.step_min <= stepMin(s);
+  return p.span.step_min === null && prev.track.step_min === stepMin(s);
 }
 
 function validated(scenario: Scenario): Scenario {
