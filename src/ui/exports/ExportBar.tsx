@@ -5,7 +5,7 @@ import { coverageFits } from '../../core/export/fits';
 import { summaryJson } from '../../core/export/summary';
 import { renderSkyMapPng } from '../skymap/exportPng';
 import type { SkyFrame, SkyScale } from '../skymap/SkyMap';
-import { scenarioCaption } from '../caption';
+import { PLANNING_NOTE, scenarioCaption } from '../caption';
 import { downloadBlob, downloadText, fileStem } from './download';
 
 // One button per file; each builds its file from the result on screen.
@@ -45,7 +45,7 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
         const title = `${result.scenario.name || 'Swathe scenario'} — ${what}`;
         const base = pngBase ?? result;
         const caption = view.diff
-          ? `A: ${scenarioCaption(base.scenario, view.freqIndex)} B: ${scenarioCaption(result.scenario, view.freqIndex)}`
+          ? `A: ${scenarioCaption(base.scenario, view.freqIndex).replace(PLANNING_NOTE, '').trim()} B: ${scenarioCaption(result.scenario, view.freqIndex)}`
           : scenarioCaption(result.scenario, view.freqIndex);
         const blob = await renderSkyMapPng(base, { ...view, widthPx, title, caption });
         downloadBlob(blob, `${stem}-${view.diff ? 'diff-' : ''}${view.compare ? 'compare' : `${f}mhz`}-${view.frame}.png`);
