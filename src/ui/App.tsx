@@ -121,7 +121,7 @@ export function App() {
       setNotices((p) => [...p, `Could not read ${file.name}: ${String(e)}`]);
       return;
     }
-    const r = parseScenarioJson(text);
+    const r = parseScenarioJson(text, file.name);
     if (!r.ok) {
       setNotices((p) => [...p, `${file.name} was not imported; your current scenario is unchanged. ${r.issues.slice(0, 5).map((i) => i.message).join(' ')}`]);
       return;

@@ -44,7 +44,7 @@ export function loadStartup(loc: { search: string } = window.location): Startup 
   }
   if (stored === null) return { scenario: DEMO_SCENARIO, source: 'demo', notice: null };
   try {
-    const r = parseScenarioJson(stored);
+    const r = parseScenarioJson(stored, 'saved scenario');
     if (r.ok) return { scenario: r.scenario, source: 'storage', notice: null };
     return { scenario: DEMO_SCENARIO, source: 'demo', notice: `The saved scenario could not be read, so the demo is shown. ${issuesText(r.issues)}` };
   } catch (e) {
