@@ -1,0 +1,27 @@
+import type { PlanResult } from '../../core/types';
+import { SENSITIVITY_DEFAULTS, SKY_MODEL_LABEL, SKY_MODEL_NOTE } from '../../core/stats';
+import { sig } from '../format';
+
+// The sensitivity model behind the noise figures, stated beside them: the
+// radiometer equation, the inputs used, the sky model's label and the warning
+// about the galactic plane (texts from core/stats.ts, as in summary.json).
+
+export function NoiseNote({ result, freqIndex }: { result: PlanResult; freqIndex: number }) {
+  const sens = result.summary.sensitivity;
+  const bw = sens?.bandwidth_mhz ?? result.scenario.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz;
+  const rx = sens?.receiver_temp_k ?? result.scenario.telescope.receiver_temp_k ?? SENSITIVITY_DEFAULTS.receiver_temp_k;
+  const f = result.summary.frequencies[freqIndex];
+  return (
+    <div className="noise-note" data-testid="noise-note" style={{ fontSize: '0.82rem', color: 'var(--ink-2)', margin: '6px 0 0' }}>
+      <p style={{ margin: '2px 0' }}>
+        Noise: radiometer equation σ_T = T_sys / √(bandwidth × exposure), T_sys = T_sky + T_receiver, with a bandwidth of{' '}
+        {sig(bw, 4)} MHz and a receiver temperature of {sig(rx, 4)} K
+        {f && f.t_sky_k !== undefined && f.t_sys_k !== undefined
+          ? `; at ${sig(f.mhz, 6)} MHz T_sky = ${sig(f.t_sky_k, 4)} K, T_sys = ${sig(f.t_sys_k, 4)} K`
+          : ''}
+        . Sky model: {sens?.sky_model ?? SKY_MODEL_LABEL}.
+      </p>
+      <p className="warn" role="note" data-testid="noise-warning" style={{ margin: '2px 0' }}>⚠ {sens?.note ?? SKY_MODEL_NOTE}</p>
+    </div>
+  );
+}

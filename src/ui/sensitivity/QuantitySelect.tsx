@@ -1,0 +1,22 @@
+import type { SkyQuantity } from '../skymap/SkyMap';
+
+// What the sky map colours: exposure in hours or radiometer noise in kelvin.
+
+export function QuantitySelect({ value, onChange, disabled, note }: {
+  value: SkyQuantity;
+  onChange: (q: SkyQuantity) => void;
+  disabled?: boolean;
+  /** why it is disabled, shown as the tooltip */
+  note?: string;
+}) {
+  return (
+    <span className="ctl">
+      <label htmlFor="view-quantity">Map shows</label>
+      <select id="view-quantity" value={value} disabled={disabled} title={note}
+        onChange={(e) => onChange(e.target.value as SkyQuantity)}>
+        <option value="exposure">Exposure (h)</option>
+        <option value="noise">Noise (K)</option>
+      </select>
+    </span>
+  );
+}

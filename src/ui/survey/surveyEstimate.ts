@@ -1,0 +1,60 @@
+import type { Scenario } from '../../core/types';
+import { estimateRun } from '../../core/limits';
+import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core/survey';
+
+// What a survey will cost, stated before it runs: the number of sites times a
+// time per site. The time per site is a fit to computeSurvey in Node on this
+// project's 2-core development machine (2026-12-01, 12 sites, one per latitude
+// row at a 15-degree step): 26 ms a site for one synodic month at nside 64
+// (925 samples) and 112 ms for the two-year demo at nside 128 (45,790
+// samples). A planning figure, within about a factor of two; after a run the
+// panel states the measured time instead.
+
+export const SURVEY_MS_PER_SITE_BASE = 20;
+export const SURVEY_MS_PER_SITE_PER_SAMPLE = 0.002;
+
+export type StepCheck = { ok: true; step: number } | { ok: false; message: string };
+
+/** The survey step as typed: a number from 1 to 15 degrees, or a message naming the range. */
+export function checkStep(text: string): StepCheck {
+  const t = text.trim();
+  const v = t === '' ? NaN : Number(t);
+  if (!Number.isFinite(v) || v < SURVEY_MIN_STEP_DEG || v > SURVEY_MAX_STEP_DEG) {
+    return {
+      ok: false,
+      message: `Survey step must be a number from ${SURVEY_MIN_STEP_DEG} to ${SURVEY_MAX_STEP_DEG} degrees, got ${t === '' ? 'nothing' : JSON.stringify(t)}.`,
+    };
+  }
+  return { ok: true, step: v };
+}
+
+export interface SurveyEstimate {
+  sites: number;
+  nLat: number;
+  nLon: number;
+  /** effective spacing after rounding to tile the body */
+  latStepDeg: number;
+  lonStepDeg: number;
+  msPerSite: number;
+  /** CPU seconds over all sites */
+  cpuSeconds: number;
+  /** wall seconds with `workers` workers in parallel (no better than the cores allow) */
+  wallSeconds: number;
+}
+
+export function estimateSurvey(s: Scenario, stepDeg: number, workers: number): SurveyEstimate {
+  const g = surveyGrid(stepDeg);
+  const samples = estimateRun(s).samples;
+  const msPerSite = SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE * samples;
+  const cpuSeconds = (g.count * msPerSite) / 1000;
+  return {
+    sites: g.count, nLat: g.nLat, nLon: g.nLon, latStepDeg: g.lat_step_deg, lonStepDeg: g.lon_step_deg,
+    msPerSite, cpuSeconds, wallSeconds: cpuSeconds / Math.max(1, workers),
+  };
+}
+
+export function secondsText(s: number): string {
+  if (s < 1) return 'under a second';
+  if (s < 90) return `about ${Math.round(s)} s`;
+  return `about ${Number((s / 60).toPrecision(2))} min`;
+}

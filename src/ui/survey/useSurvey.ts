@@ -1,0 +1,142 @@
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import type { Scenario } from '../../core/types';
+import { createSurveyEngine, type SurveyEngine } from '../../engine/surveyEngine';
+import type { SurveyRun } from '../../engine/runSurvey';
+import type { SurveyFigure, SurveyLayer } from '../../core/surveyLayer';
+import { scenarioFingerprint } from '../../core/surveyCsv';
+
+// The survey's state for the app: the options as typed, one run at a time in
+// Web Workers (createSurveyEngine), progress, cancel, and the layer of the
+// chosen figure. A cancelled or failed run keeps the previous layer.
+
+/** The figures the panel offers (the survey computes more; the CSV holds them all). */
+export const PANEL_FIGURES: { figure: SurveyFigure; label: string }[] = [
+  { figure: 'sky_fraction_covered', label: 'Sky fraction covered' },
+  { figure: 'usable_h', label: 'Usable hours' },
+  { figure: 'usable_h_beam_in_band', label: 'Usable hours with the beam on the galactic band' },
+  { figure: 'noise_median_k', label: 'Median noise (K)' },
+];
+
+export const DEFAULT_SURVEY_STEP = '15';
+
+export interface SurveyDone {
+  scenario: Scenario;
+  stepDeg: number;
+  mhz: number;
+  run: SurveyRun;
+  ms: number;
+  workers: number;
+}
+
+export interface SurveyState {
+  stepText: string;
+  setStepText: (t: string) => void;
+  mhz: number | null;
+  setMhz: (f: number) => void;
+  figure: SurveyFigure;
+  setFigure: (f: SurveyFigure) => void;
+  showOnGlobe: boolean;
+  setShowOnGlobe: (v: boolean) => void;
+  running: boolean;
+  fraction: number;
+  error: string | null;
+  cancelled: boolean;
+  done: SurveyDone | null;
+  /** the chosen figure's layer of the last completed run */
+  layer: SurveyLayer | null;
+  /** true when the last run's scenario (apart from the site) differs from the current one */
+  stale: boolean;
+  workers: number;
+  start: (s: Scenario, stepDeg: number, mhz: number) => void;
+  cancel: () => void;
+}
+
+export function surveyWorkerCount(): number {
+  const n = typeof navigator !== 'undefined' ? navigator.hardwareConcurrency : 2;
+  return Math.max(1, Math.min(4, Number.isFinite(n) && n > 0 ? n : 2));
+}
+
+export function useSurvey(current: Scenario | null): SurveyState {
+  const [stepText, setStepText] = useState(DEFAULT_SURVEY_STEP);
+  const [mhzChoice, setMhz] = useState<number | null>(null);
+  const [figure, setFigure] = useState<SurveyFigure>('sky_fraction_covered');
+  const [showOnGlobe, setShowOnGlobe] = useState(true);
+  const [running, setRunning] = useState(false);
+  const [fraction, setFraction] = useState(0);
+  const [error, setError] = useState<string | null>(null);
+  const [cancelled, setCancelled] = useState(false);
+  const [done, setDone] = useState<SurveyDone | null>(null);
+  const engineRef = useRef<SurveyEngine | null>(null);
+  const runId = useRef(0);
+  const workers = useMemo(() => surveyWorkerCount(), []);
+
+  // Dispose the workers on a real unmount only (a StrictMode remount comes straight back).
+  const mounted = useRef(false);
+  useEffect(() => {
+    mounted.current = true;
+    return () => {
+      mounted.current = false;
+      setTimeout(() => {
+        if (!mounted.current) { engineRef.current?.dispose(); engineRef.current = null; }
+      }, 0);
+    };
+  }, []);
+
+  const freqs = current?.telescope.frequencies_mhz ?? done?.scenario.telescope.frequencies_mhz ?? [];
+  const mhz = mhzChoice !== null && freqs.includes(mhzChoice) ? mhzChoice : (freqs[0] ?? null);
+
+  const start = useCallback((s: Scenario, stepDeg: number, f: number) => {
+    const id = ++runId.current;
+    setRunning(true);
+    setFraction(0);
+    setError(null);
+    setCancelled(false);
+    let engine = engineRef.current;
+    try {
+      if (!engine) engine = engineRef.current = createSurveyEngine(undefined, { workers });
+    } catch (e) {
+      setRunning(false);
+      setError(`The survey workers could not start: ${e instanceof Error ? e.message : String(e)}`);
+      return;
+    }
+    const t0 = performance.now();
+    engine.run(s, { stepDeg, frequenciesMhz: [f] }, (fr) => { if (id === runId.current) setFraction(fr); }).then(
+      (run) => {
+        if (id !== runId.current) return;
+        setRunning(false);
+        setFraction(1);
+        setDone({ scenario: s, stepDeg, mhz: f, run, ms: performance.now() - t0, workers });
+      },
+      (e: unknown) => {
+        if (id !== runId.current) return;
+        setRunning(false);
+        const isCancel = e instanceof Error && e.name === 'CancelledError';
+        setCancelled(isCancel);
+        if (!isCancel) setError(`The survey failed: ${e instanceof Error ? e.message : String(e)}. The previous survey layer is kept.`);
+      },
+    );
+  }, [workers]);
+
+  const cancel = useCallback(() => {
+    runId.current++;
+    engineRef.current?.cancel();
+    setRunning(false);
+    setFraction(0);
+    setCancelled(true);
+  }, []);
+
+  const layer = useMemo(() => {
+    if (!done) return null;
+    return done.run.layers.find((l) => l.figure === figure && (l.mhz === null || l.mhz === done.mhz)) ?? null;
+  }, [done, figure]);
+
+  const stale = useMemo(() => {
+    if (!done || !current) return false;
+    return scenarioFingerprint(done.scenario) !== scenarioFingerprint(current) || done.scenario.site.body !== current.site.body;
+  }, [done, current]);
+
+  return {
+    stepText, setStepText, mhz, setMhz, figure, setFigure, showOnGlobe, setShowOnGlobe,
+    running, fraction, error, cancelled, done, layer, stale, workers, start, cancel,
+  };
+}
