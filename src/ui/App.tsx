@@ -20,6 +20,11 @@ import { useEngine } from './state/useEngine';
 import { downloadText, fileStem } from './exports/download';
 import { PLANNING_NOTE, bodyLabel, latLabel, lonLabel } from './caption';
 import { useWidth } from './useWidth';
+import type { SkyQuantity } from './skymap/SkyMap';
+import { useSurvey } from './survey/useSurvey';
+import { SurveyPanel } from './survey/SurveyPanel';
+import { QuantitySelect } from './sensitivity/QuantitySelect';
+import { NoiseNote } from './sensitivity/NoiseNote';
 
 // The planner shell: scenario draft -> validated scenario -> worker run ->
 // result views. The last good result stays on screen whatever the draft holds.
@@ -54,6 +59,10 @@ export function App() {
     [parsed, estimate],
   );
   const runnable = scenario !== null && estimate !== null && estimate.problems.length === 0;
+  // site survey and noise map (helper W)
+  const survey = useSurvey(runnable ? scenario : null);
+  const [quantity, setQuantity] = useState<SkyQuantity>('exposure');
+  const surveyGlobeLayer = survey.showOnGlobe && survey.layer && survey.done?.scenario.site.body === draft.body ? survey.layer : null;
   const key = runnable ? scenarioToJson(scenario) : null;
 
   const result: PlanResult | null = engine.result;
@@ -196,6 +205,8 @@ export function App() {
                     compare={compare} onCompare={setCompare}
                   />
                   <div className="tools" role="group" aria-label="Time and comparison">
+                    <QuantitySelect value={quantity} onChange={setQuantity} disabled={compare || diffOn}
+                      note={compare || diffOn ? 'Comparison and difference maps show exposure' : 'Colour the map by exposure or by radiometer noise'} />
                     <label className="check">
                       <input type="checkbox" checked={scrubOn} onChange={(e) => setScrubOn(e.target.checked)} /> Time scrubber
                     </label>
@@ -216,7 +227,7 @@ export function App() {
                         diff={diff} beamAt={scrub?.beamAt ?? null} />
                     ) : (
                       <SkyMap result={result} freqIndex={fi} frame={frame} scale={scale} flipLongitude={flip} compare={compare}
-                        beamAt={scrub?.beamAt ?? null} />
+                        beamAt={scrub?.beamAt ?? null} quantity={quantity} />
                     )}
                   </div>
                 </>
@@ -229,16 +240,18 @@ export function App() {
             <div className="globe-col">
               {/* always mounted, so the globe is not rebuilt when the first result arrives */}
               <GlobePane draft={draft} scenario={scenario ?? result?.scenario ?? null} sample={scrub?.sample ?? null}
-                shadingReady={result !== null} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
+                shadingReady={result !== null} onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })}
+                valueLayer={surveyGlobeLayer} />
             </div>
           </section>
           {result && (
             <>
               <ExportBar result={result} pngBase={diffOn && pinned ? pinned : result} mapWidth={mapWidth}
-                view={{ freqIndex: fi, frame, scale, flipLongitude: flip, compare: diffOn ? false : compare, beamAt: scrub?.beamAt ?? null, diff }} />
+                view={{ freqIndex: fi, frame, scale, flipLongitude: flip, compare: diffOn ? false : compare, beamAt: scrub?.beamAt ?? null, diff, quantity }} />
               <section className="results-sec" aria-labelledby="results-head">
                 <h2 id="results-head">Results</h2>
                 <ResultsTable result={result} selected={fi} onSelect={setFreqIndex} />
+                <NoiseNote result={result} freqIndex={fi} />
                 <Timeline result={result} scrubMs={scrub ? scrub.sample.ms : null} markers={crossings} />
               </section>
               {pinned && pinned !== result && (
@@ -246,6 +259,9 @@ export function App() {
               )}
             </>
           )}
+          <SurveyPanel survey={survey} scenario={runnable ? scenario : null}
+            siteLat={Number(draft.lat)} siteLon={Number(draft.lon)}
+            onPick={(lat, lon) => patch({ lat: String(lat), lon: String(lon) })} />
           <footer className="foot">
             <p><strong>{PLANNING_NOTE}</strong></p>
             <p>

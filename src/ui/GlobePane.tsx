@@ -29,7 +29,7 @@ export function localToBodyFixed(latDeg: number, lonDeg: number, azDeg: number, 
 /** Sun/Earth seen from the site at one track sample (the time scrubber). */
 export interface SiteSample { ms: number; sunAz: number; sunEl: number; earthAz: number | null; earthEl: number | null }
 
-export function GlobePane({ draft, scenario, onPick, atMs, sample, shadingReady = true }: {
+export function GlobePane({ draft, scenario, onPick, atMs, sample, shadingReady = true, valueLayer = null }: {
   draft: Draft;
   scenario: Scenario | null;
   onPick: (lat: number, lon: number) => void;
@@ -37,6 +37,8 @@ export function GlobePane({ draft, scenario, onPick, atMs, sample, shadingReady 
   sample?: SiteSample | null;
   /** false until the first plan result is in, so the shading worker does not slow the first map */
   shadingReady?: boolean;
+  /** a value layer (a survey figure, core/surveyLayer.ts) drawn instead of the Earth-visibility shading; null = none */
+  valueLayer?: GlobeShading | null;
 }) {
   const latN = Number(draft.lat);
   const lonN = Number(draft.lon);
@@ -93,7 +95,7 @@ export function GlobePane({ draft, scenario, onPick, atMs, sample, shadingReady 
       <div className="globe-box">
         <Suspense fallback={<p className="muted">Loading the globe…</p>}>
           <SiteGlobe body={body} lat_deg={lat} lon_deg={lon} onPick={onPick} sunDir={d.sun} earthDir={body === 'moon' ? d.earth : null}
-            shading={body === 'moon' ? shading : null} />
+            shading={valueLayer ?? (body === 'moon' ? shading : null)} />
         </Suspense>
       </div>
       <figcaption>

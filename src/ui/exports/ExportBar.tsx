@@ -14,6 +14,8 @@ export interface ViewState {
   freqIndex: number; frame: SkyFrame; scale: SkyScale; flipLongitude: boolean; compare: boolean;
   beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
+  /** 'noise': the figure shows the radiometer noise map (K) instead of exposure (added by helper W) */
+  quantity?: 'exposure' | 'noise';
 }
 
 /** `pngBase`: the plan the figure is drawn from (plan A in difference mode, else `result`). */
@@ -41,14 +43,14 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
       desc: `sky map figure at ${f} MHz with colour bar, legend and caption`,
       run: async () => {
         const widthPx = Math.max(1600, Math.round(2 * mapWidth));
-        const what = view.diff ? `exposure difference B − A at ${f} MHz` : view.compare ? 'half-power outlines of all frequencies' : `exposure at ${f} MHz`;
+        const what = view.diff ? `exposure difference B − A at ${f} MHz` : view.compare ? 'half-power outlines of all frequencies' : view.quantity === 'noise' ? `radiometer noise (K) at ${f} MHz` : `exposure at ${f} MHz`;
         const title = `${result.scenario.name || 'Swathe scenario'} — ${what}`;
         const base = pngBase ?? result;
         const caption = view.diff
           ? `A: ${scenarioCaption(base.scenario, view.freqIndex).replace(PLANNING_NOTE, '').trim()} B: ${scenarioCaption(result.scenario, view.freqIndex)}`
           : scenarioCaption(result.scenario, view.freqIndex);
         const blob = await renderSkyMapPng(base, { ...view, widthPx, title, caption });
-        downloadBlob(blob, `${stem}-${view.diff ? 'diff-' : ''}${view.compare ? 'compare' : `${f}mhz`}-${view.frame}.png`);
+        downloadBlob(blob, `${stem}-${view.diff ? 'diff-' : ''}${view.compare ? 'compare' : `${f}mhz${view.quantity === 'noise' && !view.diff ? '-noise' : ''}`}-${view.frame}.png`);
       },
     },
     { label: 'Download CSV', desc: 'coverage.csv: exposure per HEALPix pixel, every frequency', run: () => downloadText(coverageCsv(result), `${stem}-coverage.csv`, 'text/csv') },

@@ -5,6 +5,7 @@ import { SHOWN_FIELDS } from '../state/draft';
 import { Field } from './Field';
 import { FrequencyList } from './FrequencyList';
 import { HorizonMask } from './HorizonMask';
+import { SensitivityFields } from '../sensitivity/SensitivityFields';
 
 // The scenario form. It edits the draft (text as typed); validation comes from
 // the scenario parser's FieldIssues, shown beside the field they name.
@@ -113,6 +114,7 @@ export function ScenarioPanel({ draft, issues, onChange }: {
         </div>
         <div className="subhead" id="freq-head">Frequencies</div>
         <FrequencyList draft={draft} issues={issues} onChange={(freqs) => onChange({ freqs })} />
+        <SensitivityFields draft={draft} issues={issues} onChange={onChange} />
       </fieldset>
 
       <fieldset>

@@ -29,6 +29,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
             <th scope="col" title={`Usable hours with the beam within ${s.galactic.center_radius_deg}° of the galactic centre`}>
               Beam near galactic centre (&lt; {s.galactic.center_radius_deg}°)
             </th>
+            <th scope="col" title="Median over the covered sky of the radiometer noise σ_T (model stated under the table)">Noise (K)</th>
           </tr>
         </thead>
         <tbody>
@@ -40,6 +41,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               data-mhz={f.mhz}
               data-sky-fraction={f.sky_fraction_covered}
               data-exposure-max={f.exposure_max_h}
+              data-noise-median={f.noise_median_k ?? ''}
             >
               <th scope="row">
                 <button type="button" className="linklike" onClick={() => onSelect(i)} aria-pressed={i === selected}
@@ -55,6 +57,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               <td>{hours(f.exposure_max_h)} h</td>
               <td>{hours(f.usable_hours_beam_in_band)} h</td>
               <td>{hours(f.usable_hours_beam_near_center)} h</td>
+              <td data-testid={`noise-cell-${i}`}>{f.noise_median_k !== undefined && Number.isFinite(f.noise_median_k) ? sig(f.noise_median_k, 4) : '—'}</td>
             </tr>
           ))}
         </tbody>

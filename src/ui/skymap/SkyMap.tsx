@@ -4,7 +4,10 @@ import { vecToGalDeg, vecToRaDecDeg } from '../../core/frames';
 import { vec2pixRing } from '../../core/healpix';
 import { formatHours, type SkySchemeName } from './colour';
 import {
+  colourBarOptions,
   colourBarTitle,
+  formatViewValue,
+  showsNoise,
   drawColourBar,
   drawOverlayLayer,
   overlayKey,
@@ -15,12 +18,13 @@ import {
   type LegendEntry,
   type RasterOut,
   type SkyView,
+  type SkyQuantity,
 } from './figure';
 import { LookupCache, screenToJ2000, type SkyFrame } from './skyProjection';
 import { coveredMasksAsync } from './coverageOutline';
 
 export type { SkyFrame } from './skyProjection';
-export type { SkyScale } from './figure';
+export type { SkyScale, SkyQuantity } from './figure';
 export type { SkySchemeName } from './colour';
 import type { SkyScale } from './figure';
 
@@ -48,6 +52,8 @@ export interface SkyMapProps {
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
   /** Sequential colour map; default cividis (readable with colour-vision deficiencies). */
   scheme?: SkySchemeName;
+  /** 'noise': colour PlanResult.noise_maps[freqIndex] in kelvin (grey where never observed); default 'exposure' */
+  quantity?: SkyQuantity;
 }
 
 const lookups = new LookupCache(6);
@@ -85,7 +91,7 @@ function LegendSwatch({ e }: { e: LegendEntry }): JSX.Element {
 }
 
 export function SkyMap(props: SkyMapProps): JSX.Element {
-  const { result, freqIndex, frame, scale, flipLongitude, compare, onHover, beamAt, diff, scheme } = props;
+  const { result, freqIndex, frame, scale, flipLongitude, compare, onHover, beamAt, diff, scheme, quantity } = props;
   const boxRef = useRef<HTMLDivElement | null>(null);
   const canvasRef = useRef<HTMLCanvasElement | null>(null);
   const barRef = useRef<HTMLCanvasElement | null>(null);
@@ -114,8 +120,8 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
   }, []);
 
   const view: SkyView = useMemo(
-    () => ({ freqIndex, frame, scale, flipLongitude, compare, diff: diff ?? null, beamAt: beamAt ?? null, scheme }),
-    [freqIndex, frame, scale, flipLongitude, compare, diff, beamAt, scheme],
+    () => ({ freqIndex, frame, scale, flipLongitude, compare, diff: diff ?? null, beamAt: beamAt ?? null, scheme, quantity: quantity ?? 'exposure' }),
+    [freqIndex, frame, scale, flipLongitude, compare, diff, beamAt, scheme, quantity],
   );
   const height = Math.round(width / 2);
   const u = width < 560 ? 0.85 : 1;
@@ -164,6 +170,7 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     canvas.dataset.frame = frame;
     canvas.dataset.scale = scale;
     canvas.dataset.compare = compare ? '1' : '0';
+    canvas.dataset.quantity = showsNoise(view) ? 'noise' : 'exposure';
     canvas.dataset.pending = raster.pending ? '1' : '0';
     setProblem(raster.problem);
     setLastRaster(raster);
@@ -195,8 +202,9 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     const ctx = bar.getContext('2d')!;
     ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
     ctx.clearRect(0, 0, w, h);
-    drawColourBar(ctx, 4, 4, w - 8, lastRaster.scale, lastRaster.lut, colourBarTitle(view, lastRaster.scale), 1);
-  }, [lastRaster, width, view]);
+    drawColourBar(ctx, 4, 4, w - 8, lastRaster.scale, lastRaster.lut, colourBarTitle(view, lastRaster.scale), 1, colourBarOptions(result, view, lastRaster.scale));
+    bar.dataset.unit = showsNoise(view) ? 'K' : 'h';
+  }, [lastRaster, width, view, result]);
 
   const hoverAt = (clientX: number, clientY: number) => {
     const canvas = canvasRef.current;
@@ -244,7 +252,9 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     ? `Sky map: half-power outlines of the tracks at ${freqs.join(', ')} MHz, ${frame} frame`
     : diff
       ? `Sky map: exposure difference at ${f} MHz, ${diff.labelB} minus ${diff.labelA}, ${frame} frame`
-      : `Sky map: exposure at ${f} MHz, ${frame} frame, ${scale} scale`;
+      : showsNoise(view)
+        ? `Sky map: radiometer noise (K) at ${f} MHz, ${frame} frame, ${scale} scale`
+        : `Sky map: exposure at ${f} MHz, ${frame} frame, ${scale} scale`;
   const labelFull = `${label}. Arrow keys move a readout cursor.`;
   const entries = legendEntries(result, view);
   const tipLeft = hover && hover.x > width * 0.62;
@@ -314,6 +324,11 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
                 {diff && i === freqIndex && diff.other.maps[i] ? ` (other plan ${formatHours(diff.other.maps[i][hover.h.pixel] ?? 0)})` : ''}
               </div>
             ))}
+            {showsNoise(view) && result.noise_maps?.[freqIndex] && (
+              <div style={{ fontWeight: 700 }}>
+                Noise at {f} MHz: {Number.isFinite(result.noise_maps[freqIndex][hover.h.pixel]) ? formatViewValue(view, result.noise_maps[freqIndex][hover.h.pixel]) : 'not observed'}
+              </div>
+            )}
           </div>
         )}
       </div>
@@ -323,7 +338,7 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
             ref={barRef}
             data-testid="sky-map-colourbar"
             role="img"
-            aria-label={lastRaster?.scale ? `${colourBarTitle(view, lastRaster.scale)}: from ${formatHours(lastRaster.scale.min)} to ${formatHours(lastRaster.scale.max)}; grey = no exposure` : 'Colour bar'}
+            aria-label={lastRaster?.scale ? `${colourBarTitle(view, lastRaster.scale)}: from ${formatViewValue(view, lastRaster.scale.min)} to ${formatViewValue(view, lastRaster.scale.max)}; grey = no exposure` : 'Colour bar'}
           />
         )}
         <div style={{ font: '12px/1.45 system-ui, sans-serif', color: '#222', minWidth: 0, flex: '1 1 260px' }}>

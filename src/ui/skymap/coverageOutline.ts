@@ -7,7 +7,8 @@ import { coveredMask, coveredStage, hitMap, hitMapStage, hitNsideFor } from '../
 // covered region is the one the summary's sky_fraction_covered counts: RING
 // pixels at map.nside whose centre came within FWHM/2 of the zenith during
 // usable time, the track taken as a continuous path (core/coverage.ts,
-// coveredMask). The outline is the boundary of that region, found on the
+// coveredMask), taken from PlanResult.covered when the engine returned it
+// (instant) and rebuilt here otherwise. The outline is the boundary of that region, found on the
 // screen raster through the same pixel lookup the exposure map uses.
 
 /** Okabe & Ito's colour-blind-safe qualitative palette (yellow last: weakest on the light grey sky). */
@@ -24,7 +25,21 @@ export function outlineColour(i: number): string {
  */
 export const MAX_OUTLINE_NSIDE = 256;
 export function outlineNside(result: PlanResult): number {
+  // The engine's own masks are at map.nside and cost nothing more to draw there.
+  if (engineMasks(result)) return result.scenario.map.nside;
   return Math.min(result.scenario.map.nside, MAX_OUTLINE_NSIDE);
+}
+
+/**
+ * The covered masks the engine returned with the result (PlanResult.covered,
+ * the very masks sky_fraction_covered counts), when present and well formed;
+ * else null and the masks are rebuilt here (results from an older engine).
+ */
+export function engineMasks(result: PlanResult): Uint8Array[] | null {
+  const c = result.covered;
+  const npix = 12 * result.scenario.map.nside * result.scenario.map.nside;
+  if (!c || c.length !== result.scenario.telescope.frequencies_mhz.length || c.some((m) => !m || m.length !== npix)) return null;
+  return c;
 }
 
 const maskCache = new WeakMap<PlanResult, Uint8Array[]>();
@@ -37,12 +52,12 @@ function beamWidths(result: PlanResult): number[] {
 
 /** Covered masks if already computed for this result, else null. */
 export function cachedCoveredMasks(result: PlanResult): Uint8Array[] | null {
-  return maskCache.get(result) ?? null;
+  return engineMasks(result) ?? maskCache.get(result) ?? null;
 }
 
 /** Covered masks (RING at outlineNside), one per frequency, computed once per result (synchronously; for Node and tests). */
 export function coveredMasks(result: PlanResult): Uint8Array[] {
-  const cached = maskCache.get(result);
+  const cached = cachedCoveredMasks(result);
   if (cached) return cached;
   const fw = beamWidths(result);
   const hit = hitMap(result.track, result.usable, { nside: hitNsideFor(Math.min(...fw)) });
@@ -71,7 +86,7 @@ async function driveSliced<T>(stage: Stage<T>): Promise<T> {
  * responsive (at nside 1024 this takes seconds). One computation per result.
  */
 export function coveredMasksAsync(result: PlanResult): Promise<Uint8Array[]> {
-  const cached = maskCache.get(result);
+  const cached = cachedCoveredMasks(result);
   if (cached) return Promise.resolve(cached);
   let p = pendingCache.get(result);
   if (p) return p;

@@ -1,5 +1,6 @@
 import type { PlanResult } from '../../core/types';
 import {
+  colourBarOptions,
   colourBarTitle,
   drawColourBar,
   drawLegendSymbol,
@@ -32,6 +33,8 @@ export interface SkyMapPngOptions {
   beamAt?: SkyView['beamAt'];
   diff?: SkyView['diff'];
   scheme?: SkyView['scheme'];
+  /** 'noise' draws the radiometer noise map in K (default exposure); the title is the caller's */
+  quantity?: SkyView['quantity'];
 }
 
 export const PNG_MIN_WIDTH = 400;
@@ -96,6 +99,7 @@ export async function renderSkyMapPng(result: PlanResult, options: SkyMapPngOpti
     diff: options.diff ?? null,
     beamAt: options.beamAt ?? null,
     scheme: options.scheme,
+    quantity: options.quantity ?? 'exposure',
   };
   if (view.compare) await coveredMasksAsync(result);
   const u = W / 900; // text and line sizes relative to a 900 px figure
@@ -157,7 +161,7 @@ export async function renderSkyMapPng(result: PlanResult, options: SkyMapPngOpti
   y += noteH;
 
   if (!view.compare && raster.scale && raster.lut) {
-    drawColourBar(ctx, margin, y + 4 * u, Math.min(inner, 620 * u), raster.scale, raster.lut, colourBarTitle(view, raster.scale), u);
+    drawColourBar(ctx, margin, y + 4 * u, Math.min(inner, 620 * u), raster.scale, raster.lut, colourBarTitle(view, raster.scale), u, colourBarOptions(result, view, raster.scale));
   } else if (raster.problem) {
     ctx.fillStyle = '#a00';
     ctx.fillText(raster.problem, margin, y + 4 * u);

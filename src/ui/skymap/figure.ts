@@ -32,6 +32,83 @@ export interface SkyView {
   scheme?: SkySchemeName;
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
   beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
+  /** What the colours show: exposure (h, default) or radiometer noise (K, PlanResult.noise_maps). Ignored in compare/diff modes. */
+  quantity?: SkyQuantity;
+}
+
+export type SkyQuantity = 'exposure' | 'noise';
+
+/** True when the view colours the noise map (not in comparison or difference modes). */
+export function showsNoise(view: SkyView): boolean {
+  return view.quantity === 'noise' && !view.compare && !view.diff;
+}
+
+/** The noise colour bar tops out at this quantile of the noise over observed pixels (the beam's far tails have huge noise). */
+export const NOISE_TOP_QUANTILE = 0.95;
+
+const noiseScaleCache = new WeakMap<Float32Array, { min: number; q: number; max: number }>();
+
+/**
+ * Smallest, NOISE_TOP_QUANTILE-quantile and largest finite noise of a map.
+ * The quantile is read from a histogram of log(noise) in 2048 bins (two passes,
+ * no sort), good to 1/2048 of the log range: ample for a colour bar's top.
+ */
+export function noiseRange(map: Float32Array): { min: number; q: number; max: number } {
+  const hit = noiseScaleCache.get(map);
+  if (hit) return hit;
+  let min = Infinity, max = -Infinity, n = 0;
+  for (let i = 0; i < map.length; i++) {
+    const v = map[i];
+    if (!(v > 0) || v === Infinity) continue;
+    n++;
+    if (v < min) min = v;
+    if (v > max) max = v;
+  }
+  let out: { min: number; q: number; max: number };
+  if (n === 0) out = { min: NaN, q: NaN, max: NaN };
+  else if (!(max > min)) out = { min, q: max, max };
+  else {
+    const B = 2048, lmin = Math.log(min), k = B / (Math.log(max) - lmin);
+    const hist = new Uint32Array(B);
+    for (let i = 0; i < map.length; i++) {
+      const v = map[i];
+      if (!(v > 0) || v === Infinity) continue;
+      hist[Math.min(B - 1, ((Math.log(v) - lmin) * k) | 0)]++;
+    }
+    const want = NOISE_TOP_QUANTILE * n;
+    let acc = 0, b = 0;
+    for (; b < B; b++) { acc += hist[b]; if (acc >= want) break; }
+    out = { min, q: Math.min(max, Math.exp(lmin + (b + 1) / k)), max };
+  }
+  noiseScaleCache.set(map, out);
+  return out;
+}
+
+/** The colour bar options of a view (unit of the labels, the grey swatch's meaning). */
+export function colourBarOptions(result: PlanResult, view: SkyView, scale: ValueScale): { format: (v: number) => string; noneLabel?: string; topLabel?: string } {
+  const format = (v: number) => formatViewValue(view, v);
+  if (!showsNoise(view)) return { format };
+  const noise = result.noise_maps?.[view.freqIndex];
+  const r = noise ? noiseRange(noise) : null;
+  const clipped = r !== null && r.max > scale.max * (1 + 1e-6);
+  return {
+    format,
+    noneLabel: 'unseen',
+    topLabel: clipped
+      ? `${scale.kind === 'linear' ? `${Math.round(NOISE_TOP_QUANTILE * 100)}th pct` : '3 decades'}: ≥ ${format(scale.max)}`
+      : `max ${format(scale.max)}`,
+  };
+}
+
+/** Noise colour scale: from the least noise to the quantile (linear) or to the largest noise, at most 3 decades (log). */
+export function noiseScale(kind: SkyScale, map: Float32Array): ValueScale {
+  const r = noiseRange(map);
+  if (!Number.isFinite(r.min)) return { kind: 'linear', min: 0, max: 1 };
+  if (kind === 'log') {
+    const top = Math.min(r.max, r.min * 1000);
+    return { kind: 'log', min: r.min, max: top > r.min ? top : r.min * 10 };
+  }
+  return { kind: 'linear', min: r.min, max: r.q > r.min ? r.q : r.min * 1.01 + 1e-9 };
 }
 
 /** Map box inside a width x (width/2) area: room for the latitude labels left and right. */
@@ -123,6 +200,17 @@ export function renderRaster(
     colourise(lookup, d, scale, lut, pixels);
     return { pixels, cols, rows, scale, lut, problem: null };
   }
+  if (showsNoise(view)) {
+    const noise = result.noise_maps?.[view.freqIndex];
+    if (!noise || noise.length !== map.length) {
+      colourise(lookup, new Float32Array(0), { kind: 'linear', min: 0, max: 1 }, schemeLut(DEFAULT_SCHEME), pixels);
+      return { pixels, cols, rows, scale: null, lut: null, problem: 'this result has no noise map (computed by an older engine); recompute to get one' };
+    }
+    const scale = noiseScale(view.scale, noise);
+    const lut = schemeLut(view.scheme ?? DEFAULT_SCHEME);
+    colourise(lookup, noise, scale, lut, pixels);
+    return { pixels, cols, rows, scale, lut, problem: null };
+  }
   const scale = makeScale(view.scale, map);
   const lut = schemeLut(view.scheme ?? DEFAULT_SCHEME);
   colourise(lookup, map, scale, lut, pixels);
@@ -177,7 +265,19 @@ export function drawMapLayer(
   drawOverlayLayer(ctx, g, result, view, u);
 }
 
+/** A value with the unit the view's colours are in ("h" or "K"), for readouts and the bar's top label. */
+export function formatViewValue(view: SkyView, v: number): string {
+  if (!showsNoise(view)) return formatHours(v);
+  if (!Number.isFinite(v)) return '—';
+  const a = Math.abs(v);
+  if (a >= 1e5 || (a > 0 && a < 1e-3)) return `${v.toExponential(2)} K`;
+  return `${Number(v.toPrecision(3)).toLocaleString('en-US', { maximumFractionDigits: 8 })} K`;
+}
+
 export function colourBarTitle(view: SkyView, scale: ValueScale | null): string {
+  if (showsNoise(view)) {
+    return scale?.kind === 'log' ? 'Noise σ_T (K, logarithmic)' : 'Noise σ_T (K)';
+  }
   if (view.diff && scale?.kind === 'diverging') return `Exposure difference, ${view.diff.labelB} − ${view.diff.labelA} (h)`;
   return scale?.kind === 'log' ? 'Exposure (h, logarithmic)' : 'Exposure (h)';
 }
@@ -196,7 +296,10 @@ export function drawColourBar(
   lut: Uint8ClampedArray,
   title: string,
   u: number,
+  /** top-right label's value format (default hours) and the grey swatch's text */
+  opts: { format?: (v: number) => string; noneLabel?: string; topLabel?: string } = {},
 ): number {
+  const fmt = opts.format ?? formatHours;
   const font = Math.max(10, 12 * u);
   const barH = 12 * u;
   const swatch = scale.kind === 'diverging' ? 0 : 30 * u;
@@ -210,7 +313,7 @@ export function drawColourBar(
   ctx.fillText(title, x, y);
   ctx.font = fontPx(font);
   ctx.textAlign = 'right';
-  ctx.fillText(scale.kind === 'diverging' ? `± ${formatHours(scale.max)}` : `max ${formatHours(scale.max)}`, bx + bw, y);
+  ctx.fillText(scale.kind === 'diverging' ? `± ${fmt(scale.max)}` : (opts.topLabel ?? `max ${fmt(scale.max)}`), bx + bw, y);
   const n = lut.length / 4;
   for (let i = 0; i < n; i++) {
     ctx.fillStyle = `rgb(${lut[4 * i]},${lut[4 * i + 1]},${lut[4 * i + 2]})`;
@@ -228,7 +331,7 @@ export function drawColourBar(
     ctx.strokeRect(x, top, swatch, barH);
     ctx.fillStyle = '#1a1a1a';
     ctx.textAlign = 'center';
-    ctx.fillText('none', x + swatch / 2, top + barH + 3 * u);
+    ctx.fillText(opts.noneLabel ?? 'none', x + swatch / 2, top + barH + 3 * u);
   }
   // Ticks, dropping any whose label would touch the previous one.
   let lastRight = -Infinity;

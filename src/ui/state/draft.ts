@@ -35,6 +35,9 @@ export interface Draft {
   nside: string;
   band: string;
   centre: string;
+  /** optional sensitivity inputs (helper W); '' = the default in stats.ts SENSITIVITY_DEFAULTS */
+  bandwidth: string;
+  receiverK: string;
 }
 
 let nextId = 1;
@@ -81,6 +84,8 @@ export function scenarioToDraft(s: Scenario): Draft {
     nside: num(s.map.nside),
     band: num(s.map.galactic_band_deg),
     centre: num(s.map.galactic_center_radius_deg),
+    bandwidth: s.telescope.bandwidth_mhz === undefined ? '' : num(s.telescope.bandwidth_mhz),
+    receiverK: s.telescope.receiver_temp_k === undefined ? '' : num(s.telescope.receiver_temp_k),
   };
 }
 
@@ -107,6 +112,8 @@ export function draftToCandidate(d: Draft): unknown {
       aperture_m: numOrText(d.aperture),
       frequencies_mhz: d.freqs.map(freqRowMhz),
       beam: { model: d.beamModel, fwhm_factor: numOrText(d.fwhmFactor) },
+      ...((d.bandwidth ?? '').trim() === '' ? {} : { bandwidth_mhz: numOrText(d.bandwidth) }),
+      ...((d.receiverK ?? '').trim() === '' ? {} : { receiver_temp_k: numOrText(d.receiverK) }),
     },
     constraints: {
       sun_max_elev_deg: d.sunOn ? numOrText(d.sunMax) : null,
@@ -145,7 +152,7 @@ export class IssueIndex {
 /** Field paths the scenario panel shows next to an input. */
 export const SHOWN_FIELDS = [
   'name', 'site.body', 'site.lat_deg', 'site.lon_deg', 'span.start', 'span.end', 'span.step_min',
-  'telescope.aperture_m', 'telescope.beam.model', 'telescope.beam.fwhm_factor', 'telescope.frequencies_mhz',
+  'telescope.aperture_m', 'telescope.beam.model', 'telescope.bandwidth_mhz', 'telescope.receiver_temp_k', 'telescope.beam.fwhm_factor', 'telescope.frequencies_mhz',
   'constraints.sun_max_elev_deg', 'constraints.earth_max_elev_deg', 'constraints.horizon_mask',
   'map.nside', 'map.galactic_band_deg', 'map.galactic_center_radius_deg',
 ] as const;
