@@ -4,7 +4,7 @@ import type { GlobeShading } from '../globe/SiteGlobe';
 // start year in a worker and kept in memory.
 
 const NODAL_CYCLE_D = 6798.38; // lunar nodal period (ARCHITECTURE §4)
-export const SHADING_GRID = { latStepDeg: 5, lonStepDeg: 5, stepMin: 720 };
+export const SHADING_GRID = { latStepDeg: 3, lonStepDeg: 3, stepMin: 720 };
 
 const cache = new Map<number, Promise<GlobeShading>>();
 let nextId = 1;
