@@ -92,7 +92,7 @@ export function useEngine(): EngineState & { run: (s: Scenario) => void; cancel:
           ...p,
           running: false,
           cancelled,
-          error: cancelled ? null : `The computation failed: ${errText(e)}. The previous result is kept; change a setting or press Compute to try again.`,
+          error: cancelled ? null : `The computation failed: ${errText(e).replace(/[.\s]+$/, '')}. ${p.result ? 'The previous result is kept; change' : 'Change'} a setting or press Compute to try again.`,
         }));
       });
   }, [fresh]);
