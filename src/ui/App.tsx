@@ -62,7 +62,7 @@ export function App() {
   // site survey and noise map (helper W)
   const survey = useSurvey(runnable ? scenario : null);
   const [quantity, setQuantity] = useState<SkyQuantity>('exposure');
-  const surveyGlobeLayer = survey.showOnGlobe && survey.layer && survey.done?.scenario.site.body === draft.body ? survey.layer : null;
+  const surveyGlobeLayer = survey.showOnGlobe && survey.layer && survey.done?.scenario.site.body === draft.body ? survey.globeLayer : null;
   const key = runnable ? scenarioToJson(scenario) : null;
 
   const result: PlanResult | null = engine.result;
@@ -75,8 +75,9 @@ export function App() {
   }, [engine]);
 
   // The startup scenario is computed on open, whatever its size.
+  // (Under StrictMode's double effects the second start supersedes the first; the engine drops the stale run.)
   useEffect(() => {
-    if (runnable && requested.current === null) start(scenario!);
+    if (runnable) start(scenario!);
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
 
@@ -171,6 +172,10 @@ export function App() {
       <div className="layout">
         <aside className="side" aria-labelledby="scenario-head">
           <h2 id="scenario-head">Scenario</h2>
+          <p className="intro">
+            Set the site (type it, or click the globe), the span and the telescope. Short runs recompute as you type;
+            the downloads sit under the map.
+          </p>
           <ScenarioPanel draft={draft} issues={issues} onChange={patch} />
         </aside>
         <main className="main">
