@@ -61,6 +61,15 @@ describe('noise colour scale', () => {
     expect(noiseScale('log', new Float32Array(m)).max).toBe(1000);
   });
 
+  it('with the covered-sky mask, linear spans the noise inside it (the tails outside take the top colour)', () => {
+    const m = Float32Array.from([5, 2, 3, 400, NaN, 900]);
+    const covered = Uint8Array.from([1, 1, 1, 0, 0, 0]);
+    expect(noiseScale('linear', m, covered)).toEqual({ kind: 'linear', min: 2, max: 5 });
+    // A mask of the wrong size is not used.
+    expect(noiseScale('linear', m, new Uint8Array(3)).min).toBe(2);
+    expect(noiseScale('linear', m, new Uint8Array(3)).max).toBeGreaterThan(5);
+  });
+
   it('labels the bar and readouts in kelvin only when the view shows noise', () => {
     const v = { freqIndex: 0, frame: 'equatorial' as const, scale: 'linear' as const, flipLongitude: false, compare: false };
     expect(colourBarTitle({ ...v, quantity: 'noise' }, { kind: 'linear', min: 1, max: 2 })).toBe('Noise σ_T (K)');

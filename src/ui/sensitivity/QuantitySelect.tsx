@@ -10,9 +10,9 @@ export function QuantitySelect({ value, onChange, disabled, note }: {
   note?: string;
 }) {
   return (
-    <span className="ctl">
+    <span className="ctl" style={{ display: 'inline-flex', alignItems: 'center', gap: 6 }}>
       <label htmlFor="view-quantity">Map shows</label>
-      <select id="view-quantity" value={value} disabled={disabled} title={note}
+      <select id="view-quantity" style={{ width: 'auto' }} value={value} disabled={disabled} title={note}
         onChange={(e) => onChange(e.target.value as SkyQuantity)}>
         <option value="exposure">Exposure (h)</option>
         <option value="noise">Noise (K)</option>

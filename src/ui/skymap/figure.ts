@@ -91,19 +91,56 @@ export function colourBarOptions(result: PlanResult, view: SkyView, scale: Value
   const noise = result.noise_maps?.[view.freqIndex];
   const r = noise ? noiseRange(noise) : null;
   const clipped = r !== null && r.max > scale.max * (1 + 1e-6);
+  const covered = result.covered?.[view.freqIndex];
+  const byMask = scale.kind === 'linear' && noise && covered && covered.length === noise.length &&
+    maskedNoiseRange(noise, covered).max === scale.max;
   return {
     format,
-    noneLabel: 'unseen',
-    topLabel: clipped
-      ? `${scale.kind === 'linear' ? `${Math.round(NOISE_TOP_QUANTILE * 100)}th pct` : '3 decades'}: ≥ ${format(scale.max)}`
-      : `max ${format(scale.max)}`,
+    topLabel: !clipped
+      ? `max ${format(scale.max)}`
+      : byMask
+        ? `covered-sky max ${format(scale.max)}; beyond: top colour`
+        : `${scale.kind === 'linear' ? `${Math.round(NOISE_TOP_QUANTILE * 100)}th pct` : '3 decades'}: ≥ ${format(scale.max)}`,
   };
 }
 
-/** Noise colour scale: from the least noise to the quantile (linear) or to the largest noise, at most 3 decades (log). */
-export function noiseScale(kind: SkyScale, map: Float32Array): ValueScale {
+const coveredRangeCache = new WeakMap<Float32Array, WeakMap<Uint8Array, { min: number; max: number }>>();
+
+/** Least and largest finite noise over the pixels of `mask` (the covered sky), cached per pair. */
+export function maskedNoiseRange(map: Float32Array, mask: Uint8Array): { min: number; max: number } {
+  let inner = coveredRangeCache.get(map);
+  if (!inner) coveredRangeCache.set(map, (inner = new WeakMap()));
+  const hit = inner.get(mask);
+  if (hit) return hit;
+  let min = Infinity, max = -Infinity;
+  const n = Math.min(map.length, mask.length);
+  for (let i = 0; i < n; i++) {
+    if (!mask[i]) continue;
+    const v = map[i];
+    if (!(v > 0) || v === Infinity) continue;
+    if (v < min) min = v;
+    if (v > max) max = v;
+  }
+  const out = min <= max ? { min, max } : { min: NaN, max: NaN };
+  inner.set(mask, out);
+  return out;
+}
+
+/**
+ * Noise colour scale. With the covered-sky mask (PlanResult.covered, the
+ * region the summary's noise median is taken over), linear runs over the noise
+ * in that region, so its detail is visible; the beam's far tails outside it
+ * (little exposure, large noise) take the top colour. Without a mask, linear
+ * runs from the least noise to the NOISE_TOP_QUANTILE quantile. Log runs from
+ * the least noise over at most three decades.
+ */
+export function noiseScale(kind: SkyScale, map: Float32Array, covered?: Uint8Array | null): ValueScale {
   const r = noiseRange(map);
   if (!Number.isFinite(r.min)) return { kind: 'linear', min: 0, max: 1 };
+  if (kind === 'linear' && covered && covered.length === map.length) {
+    const c = maskedNoiseRange(map, covered);
+    if (Number.isFinite(c.min) && c.max > c.min) return { kind: 'linear', min: c.min, max: c.max };
+  }
   if (kind === 'log') {
     const top = Math.min(r.max, r.min * 1000);
     return { kind: 'log', min: r.min, max: top > r.min ? top : r.min * 10 };
@@ -206,7 +243,7 @@ export function renderRaster(
       colourise(lookup, new Float32Array(0), { kind: 'linear', min: 0, max: 1 }, schemeLut(DEFAULT_SCHEME), pixels);
       return { pixels, cols, rows, scale: null, lut: null, problem: 'this result has no noise map (computed by an older engine); recompute to get one' };
     }
-    const scale = noiseScale(view.scale, noise);
+    const scale = noiseScale(view.scale, noise, result.covered?.[view.freqIndex] ?? null);
     const lut = schemeLut(view.scheme ?? DEFAULT_SCHEME);
     colourise(lookup, noise, scale, lut, pixels);
     return { pixels, cols, rows, scale, lut, problem: null };

@@ -78,7 +78,8 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
   const stepId = useId();
   const freqId = useId();
   const figId = useId();
-  const [boxRef, boxWidth] = useWidth<HTMLDivElement>(700);
+  // measured on the section, which is always mounted (the map box appears only after a run)
+  const [boxRef, boxWidth] = useWidth<HTMLElement>(700);
   const [hoverCell, setHoverCell] = useState<number | null>(null);
   const step = checkStep(survey.stepText);
   const est = useMemo(
@@ -89,7 +90,7 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
   const canRun = scenario !== null && step.ok && survey.mhz !== null && !survey.running;
   const done = survey.done;
   const layer = survey.layer;
-  const mapW = Math.max(220, Math.min(boxWidth, 900));
+  const mapW = Math.max(200, Math.min(boxWidth - 26, 900)); // section padding and border
   const body = done?.scenario.site.body ?? scenario?.site.body ?? 'moon';
   const rerunFor = done && (done.mhz !== survey.mhz || (step.ok && done.stepDeg !== step.step));
   const perFrequency = survey.figure !== 'usable_h';
@@ -108,7 +109,7 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
   };
 
   return (
-    <section className="survey-sec" aria-labelledby="survey-head" data-testid="survey-panel">
+    <section className="survey-sec" aria-labelledby="survey-head" data-testid="survey-panel" ref={boxRef}>
       <h2 id="survey-head">Site survey</h2>
       <p className="survey-intro">
         Figures of merit for a grid of sites over {body === 'earth' ? 'the Earth' : body === 'mars' ? 'Mars' : 'the Moon'}, each site
@@ -120,7 +121,7 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
           <input id={stepId} inputMode="decimal" value={survey.stepText} aria-invalid={!step.ok}
             aria-describedby={`${stepId}-hint${step.ok ? '' : ` ${stepId}-msg`}`}
             onChange={(e) => survey.setStepText(e.target.value)} />
-          <span className="hint" id={`${stepId}-hint`}>1–15; 15 is quick, 5 takes minutes</span>
+          <span className="hint" id={`${stepId}-hint`}>1–15 (15 is quick; 5 takes minutes)</span>
           {!step.ok && <span className="field-msg" id={`${stepId}-msg`} role="alert" data-testid="survey-step-msg">{step.message}</span>}
         </div>
         <div className="field">
@@ -175,7 +176,7 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
             {survey.stale && <span className="warn"> The scenario has changed since: run the survey again to update the layer.</span>}
             {!survey.stale && rerunFor && <span className="warn"> Run the survey again for the step or frequency now chosen.</span>}
           </p>
-          <div className="survey-map-wrap" ref={boxRef}>
+          <div className="survey-map-wrap">
             <div className="survey-map" data-testid="survey-flat-map" style={{ width: mapW }}
               onPointerMove={pointerCell} onPointerLeave={() => setHoverCell(null)}>
               <FlatSitePicker body={done.scenario.site.body} lat_deg={siteLat} lon_deg={siteLon} onPick={onPick} shading={layer} width={mapW} />

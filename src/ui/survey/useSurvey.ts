@@ -44,6 +44,8 @@ export interface SurveyState {
   done: SurveyDone | null;
   /** the chosen figure's layer of the last completed run */
   layer: SurveyLayer | null;
+  /** the same for the globe's legend: sky fractions in percent */
+  globeLayer: SurveyLayer | null;
   /** true when the last run's scenario (apart from the site) differs from the current one */
   stale: boolean;
   workers: number;
@@ -130,6 +132,13 @@ export function useSurvey(current: Scenario | null): SurveyState {
     return done.run.layers.find((l) => l.figure === figure && (l.mhz === null || l.mhz === done.mhz)) ?? null;
   }, [done, figure]);
 
+  const globeLayer = useMemo(() => {
+    if (!layer) return null;
+    const label = `Survey: ${layer.label}`;
+    if (layer.figure !== 'sky_fraction_covered') return { ...layer, label };
+    return { ...layer, label, values: layer.values.map((v) => v * 100), min: layer.min * 100, max: layer.max * 100, unit: '%' };
+  }, [layer]);
+
   const stale = useMemo(() => {
     if (!done || !current) return false;
     return scenarioFingerprint(done.scenario) !== scenarioFingerprint(current) || done.scenario.site.body !== current.site.body;
@@ -137,6 +146,6 @@ export function useSurvey(current: Scenario | null): SurveyState {
 
   return {
     stepText, setStepText, mhz, setMhz, figure, setFigure, showOnGlobe, setShowOnGlobe,
-    running, fraction, error, cancelled, done, layer, stale, workers, start, cancel,
+    running, fraction, error, cancelled, done, layer, globeLayer, stale, workers, start, cancel,
   };
 }
