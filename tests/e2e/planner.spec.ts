@@ -264,4 +264,11 @@ test('narrow screen: the panel and the map are both usable at 400 px', async ({ 
   const box = (await page.locator(MAP).boundingBox())!;
   expect(box.width).toBeLessThanOrEqual(400);
   expect(box.width).toBeGreaterThan(300);
+  // the time scrubber and the comparison panel fit too (wide tables scroll inside their boxes)
+  await page.getByLabel('Time scrubber').check();
+  await page.getByRole('button', { name: 'Pin this result as A' }).click();
+  await page.getByLabel('Scenario name').fill('Narrow B');
+  await expect(page.getByTestId('compare-panel')).toBeVisible({ timeout: 60_000 });
+  const overflow2 = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+  expect(overflow2).toBeLessThanOrEqual(1);
 });
