@@ -15,7 +15,7 @@ import { ComparePanel } from './compare/ComparePanel';
 import { RunBar } from './RunBar';
 import { ViewControls } from './ViewControls';
 import { IssueIndex, draftToCandidate, scenarioToDraft, type Draft } from './state/draft';
-import { loadStartup, saveScenario } from './state/persist';
+import { loadStartup, saveScenario, shareLink } from './state/persist';
 import { useEngine } from './state/useEngine';
 import { downloadText, fileStem } from './exports/download';
 import { PLANNING_NOTE, bodyLabel, latLabel, lonLabel } from './caption';
@@ -156,6 +156,18 @@ export function App() {
           <button type="button" disabled={!scenario}
             onClick={() => scenario && downloadText(scenarioToJson(scenario), `${fileStem(scenario.name)}.scenario.json`, 'application/json')}>
             Export scenario JSON
+          </button>
+          <button type="button" disabled={!scenario} title="Copy a link that opens this scenario"
+            onClick={() => {
+              if (!scenario) return;
+              const link = shareLink(scenario);
+              const say = (n: string) => setNotices((p) => [...p.filter((x) => !x.startsWith('Link')), n]);
+              navigator.clipboard?.writeText(link).then(
+                () => say('Link to this scenario copied to the clipboard.'),
+                () => say(`Link to this scenario (copy it by hand): ${link}`),
+              ) ?? say(`Link to this scenario (copy it by hand): ${link}`);
+            }}>
+            Copy link
           </button>
         </div>
       </header>

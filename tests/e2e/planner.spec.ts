@@ -272,3 +272,23 @@ test('narrow screen: the panel and the map are both usable at 400 px', async ({ 
   const overflow2 = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
   expect(overflow2).toBeLessThanOrEqual(1);
 });
+
+test('Copy link gives a link that opens the same scenario in a fresh page', async ({ page, context, browser }) => {
+  await context.grantPermissions(['clipboard-read', 'clipboard-write']);
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  await page.getByLabel('Latitude', { exact: true }).fill('12.25');
+  await expect(page.getByTestId('result-title')).toContainText('12.25° N', { timeout: 60_000 });
+  await page.getByRole('button', { name: 'Copy link', exact: true }).click();
+  await expect(page.getByTestId('notices')).toContainText('Link to this scenario');
+  const link = await page.evaluate(() => navigator.clipboard.readText());
+  const other = await browser.newContext(); // no local storage: only the link carries the scenario
+  const outside2 = await guardHosts(other);
+  const p2 = await other.newPage();
+  await p2.goto(link);
+  await waitForMap(p2);
+  await expect(p2.getByLabel('Latitude', { exact: true })).toHaveValue('12.25');
+  await expect(p2.getByTestId('result-title')).toContainText(SHORT.name);
+  await other.close();
+  expect(outside2).toEqual([]);
+});
