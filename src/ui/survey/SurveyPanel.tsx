@@ -157,7 +157,7 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
         ) : est ? (
           <span>
             Estimate: {est.sites.toLocaleString('en-US')} sites ({est.nLat} latitudes × {est.nLon} longitudes, every{' '}
-            {Number(est.latStepDeg.toPrecision(3))}° × {Number(est.lonStepDeg.toPrecision(3))}°) × about {Math.round(est.msPerSite)} ms a site
+            {Number(est.latStepDeg.toPrecision(3))}° × {Number(est.lonStepDeg.toPrecision(3))}°) × about {Number(est.msPerSite.toPrecision(2))} ms a site
             {' '}= {secondsText(est.cpuSeconds)} of computing, {secondsText(est.wallSeconds)} on {survey.workers} worker{survey.workers === 1 ? '' : 's'}.
             {' '}The page stays usable meanwhile.
           </span>

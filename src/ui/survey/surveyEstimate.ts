@@ -4,14 +4,16 @@ import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core
 
 // What a survey will cost, stated before it runs: the number of sites times a
 // time per site. The time per site is a fit to computeSurvey in Node on this
-// project's 2-core development machine (2026-12-01, 12 sites, one per latitude
-// row at a 15-degree step): 26 ms a site for one synodic month at nside 64
-// (925 samples) and 112 ms for the two-year demo at nside 128 (45,790
-// samples). A planning figure, within about a factor of two; after a run the
-// panel states the measured time instead.
+// project's shared 2-core development machine (2026-12-01, one frequency as
+// the panel runs it, JIT warm, 24 to 96 sites spread over the grid): 3.5 ms a
+// site for one synodic month at nside 64 (925 samples), 30 ms for one year at
+// nside 128 (22,927 samples), 40 ms for the two-year demo at nside 128 (45,790
+// samples). The model gives 5.8, 30.5 and 40.8 ms. A planning figure, within
+// about a factor of two; after a run the panel states the measured time.
 
-export const SURVEY_MS_PER_SITE_BASE = 20;
-export const SURVEY_MS_PER_SITE_PER_SAMPLE = 0.002;
+export const SURVEY_MS_PER_SITE_BASE = 0.5;
+export const SURVEY_MS_PER_SITE_PER_SAMPLE = 4.5e-4;
+export const SURVEY_MS_PER_SITE_PER_PIXEL = 1e-4;
 
 export type StepCheck = { ok: true; step: number } | { ok: false; message: string };
 
@@ -36,7 +38,7 @@ export interface SurveyEstimate {
   latStepDeg: number;
   lonStepDeg: number;
   msPerSite: number;
-  /** CPU seconds over all sites */
+  /** CPU seconds over all sites (one frequency) */
   cpuSeconds: number;
   /** wall seconds with `workers` workers in parallel (no better than the cores allow) */
   wallSeconds: number;
@@ -45,7 +47,8 @@ export interface SurveyEstimate {
 export function estimateSurvey(s: Scenario, stepDeg: number, workers: number): SurveyEstimate {
   const g = surveyGrid(stepDeg);
   const samples = estimateRun(s).samples;
-  const msPerSite = SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE * samples;
+  const npix = 12 * s.map.nside * s.map.nside;
+  const msPerSite = SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE * samples + SURVEY_MS_PER_SITE_PER_PIXEL * npix;
   const cpuSeconds = (g.count * msPerSite) / 1000;
   return {
     sites: g.count, nLat: g.nLat, nLon: g.nLon, latStepDeg: g.lat_step_deg, lonStepDeg: g.lon_step_deg,
