@@ -102,6 +102,12 @@ test('the sky map draws the noise map in kelvin, with the sky model and the gala
   // The model is stated beside the figures (texts from core/stats.ts, as in summary.json).
   await expect(page.getByTestId('noise-note')).toContainText('cold-sky power law T_sky = 60 K x (lambda / 1 m)^2.55');
   await expect(page.getByTestId('noise-warning')).toContainText('galactic plane');
+  // The PNG of the noise figure says so in its file name and is a PNG (signature, ISO/IEC 15948) at least 1600 px wide.
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download PNG', exact: true }).click()]);
+  expect(dl.suggestedFilename()).toMatch(/-8mhz-noise-equatorial\.png$/);
+  const png = readFileSync(await dl.path());
+  expect(png.subarray(0, 8).toString('hex')).toBe('89504e470d0a1a0a');
+  expect(png.readUInt32BE(16)).toBeGreaterThanOrEqual(1600);
   // Back to exposure: the first drawing again.
   await page.getByLabel('Map shows').selectOption('exposure');
   await expect(map).toHaveAttribute('data-quantity', 'exposure');

@@ -87,6 +87,12 @@ test('a coarse survey runs, colours the globe and the flat map, picks a site and
   await expect(result).toHaveAttribute('data-figure', 'sky_fraction_covered');
   await expect(panel.getByTestId('survey-legend')).toContainText('%');
 
+  // The median-noise figure: in kelvin, from the same run (no new survey); sites on the near side see nothing: no value.
+  await panel.getByLabel('Figure shown').selectOption('noise_median_k');
+  await expect(result).toHaveAttribute('data-figure', 'noise_median_k');
+  await expect(panel.getByTestId('survey-legend')).toContainText(' K');
+  await expect(panel.getByTestId('survey-legend')).toContainText('no value');
+
   // The CSV: the swathe.survey/1 header line, the column names, one row per site in grid order.
   const [dl] = await Promise.all([page.waitForEvent('download'), panel.getByRole('button', { name: 'Download survey CSV' }).click()]);
   expect(dl.suggestedFilename()).toMatch(/\.survey-15deg\.csv$/);

@@ -6,6 +6,7 @@ import { summaryJson } from '../../core/export/summary';
 import { renderSkyMapPng } from '../skymap/exportPng';
 import type { SkyFrame, SkyScale } from '../skymap/SkyMap';
 import { PLANNING_NOTE, scenarioCaption } from '../caption';
+import { noiseCaption } from '../sensitivity/NoiseNote';
 import { downloadBlob, downloadText, fileStem } from './download';
 
 // One button per file; each builds its file from the result on screen.
@@ -49,7 +50,8 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
         const caption = view.diff
           ? `A: ${scenarioCaption(base.scenario, view.freqIndex).replace(PLANNING_NOTE, '').trim()} B: ${scenarioCaption(result.scenario, view.freqIndex)}`
           : scenarioCaption(result.scenario, view.freqIndex);
-        const blob = await renderSkyMapPng(base, { ...view, widthPx, title, caption });
+        const fullCaption = view.quantity === 'noise' && !view.diff && !view.compare ? `${noiseCaption(result, view.freqIndex)} ${caption}` : caption;
+        const blob = await renderSkyMapPng(base, { ...view, widthPx, title, caption: fullCaption });
         downloadBlob(blob, `${stem}-${view.diff ? 'diff-' : ''}${view.compare ? 'compare' : `${f}mhz${view.quantity === 'noise' && !view.diff ? '-noise' : ''}`}-${view.frame}.png`);
       },
     },

@@ -6,6 +6,17 @@ import { sig } from '../format';
 // radiometer equation, the inputs used, the sky model's label and the warning
 // about the galactic plane (texts from core/stats.ts, as in summary.json).
 
+/** One paragraph for a figure caption: the noise model, its inputs and the galactic-plane warning. */
+export function noiseCaption(result: PlanResult, freqIndex: number): string {
+  const sens = result.summary.sensitivity;
+  const bw = sens?.bandwidth_mhz ?? result.scenario.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz;
+  const rx = sens?.receiver_temp_k ?? result.scenario.telescope.receiver_temp_k ?? SENSITIVITY_DEFAULTS.receiver_temp_k;
+  const f = result.summary.frequencies[freqIndex];
+  const t = f && f.t_sys_k !== undefined ? ` (T_sys = ${sig(f.t_sys_k, 4)} K at ${sig(f.mhz, 6)} MHz)` : '';
+  return `Noise: radiometer equation sigma_T = T_sys / sqrt(bandwidth x exposure), bandwidth ${sig(bw, 4)} MHz, receiver ${sig(rx, 4)} K${t}; ` +
+    `sky model: ${sens?.sky_model ?? SKY_MODEL_LABEL}. ${sens?.note ?? SKY_MODEL_NOTE}`;
+}
+
 export function NoiseNote({ result, freqIndex }: { result: PlanResult; freqIndex: number }) {
   const sens = result.summary.sensitivity;
   const bw = sens?.bandwidth_mhz ?? result.scenario.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz;

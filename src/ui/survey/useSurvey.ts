@@ -15,6 +15,7 @@ export const PANEL_FIGURES: { figure: SurveyFigure; label: string }[] = [
   { figure: 'usable_h', label: 'Usable hours' },
   { figure: 'usable_h_beam_in_band', label: 'Usable hours with the beam on the galactic band' },
   { figure: 'noise_median_k', label: 'Median noise (K)' },
+  { figure: 'usable_h_beam_near_center', label: 'Usable hours with the beam near the galactic centre' },
 ];
 
 export const DEFAULT_SURVEY_STEP = '15';
