@@ -126,3 +126,16 @@ test('a survey can be cancelled and the page keeps working', async ({ page }) =>
   await expect(panel.getByRole('button', { name: 'Run survey' })).toBeEnabled();
   await expect(panel.getByTestId('survey-result')).toHaveCount(0);
 });
+
+test('comparison outlines use the engine\'s covered masks: drawn with the first redraw, never pending', async ({ page }) => {
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  const map = page.locator('[data-testid="sky-map-canvas"]').first();
+  const n0 = Number(await map.getAttribute('data-draw-count'));
+  await page.getByLabel('Compare all frequencies').check();
+  await expect(map).toHaveAttribute('data-compare', '1');
+  // The first draw in compare mode already has the outlines (no "Computing the half-power outlines" pass).
+  expect(Number(await map.getAttribute('data-draw-count'))).toBe(n0 + 1);
+  await expect(map).toHaveAttribute('data-pending', '0');
+  await expect(page.getByText('Computing the half-power outlines')).toHaveCount(0);
+});

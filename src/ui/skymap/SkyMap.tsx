@@ -21,7 +21,7 @@ import {
   type SkyQuantity,
 } from './figure';
 import { LookupCache, screenToJ2000, type SkyFrame } from './skyProjection';
-import { coveredMasksAsync } from './coverageOutline';
+import { cachedCoveredMasks, coveredMasksAsync } from './coverageOutline';
 
 export type { SkyFrame } from './skyProjection';
 export type { SkyScale, SkyQuantity } from './figure';
@@ -178,7 +178,8 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
 
   // Comparison outlines are computed in slices off the input path; redraw once they exist.
   useEffect(() => {
-    if (!compare) return;
+    // Masks already at hand (the engine's PlanResult.covered, or computed before): the draw has them, no second pass.
+    if (!compare || cachedCoveredMasks(result)) return;
     let live = true;
     setOutlineError(null);
     coveredMasksAsync(result).then(
