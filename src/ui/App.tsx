@@ -224,6 +224,10 @@ export function App() {
                   <div className="tools" role="group" aria-label="Time and comparison">
                     <QuantitySelect value={quantity} onChange={setQuantity} disabled={compare || diffOn}
                       note={compare || diffOn ? 'Comparison and difference maps show exposure' : 'Colour the map by exposure or by radiometer noise'} />
+                    <button type="button" className="small" title="Figures of merit for a grid of sites over the body (below the results)"
+                      onClick={() => document.getElementById('survey-head')?.scrollIntoView({ behavior: 'smooth', block: 'start' })}>
+                      Site survey ↓
+                    </button>
                     <label className="check">
                       <input type="checkbox" checked={scrubOn} onChange={(e) => setScrubOn(e.target.checked)} /> Time scrubber
                     </label>
