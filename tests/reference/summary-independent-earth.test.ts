@@ -37,7 +37,7 @@ const mustRun = process.env.CI === 'true';
 interface Row { usable: number; sun: number; b: number; l: number }
 
 /** Runs `swathe plan` (bin/swathe.mjs, as `npx swathe` does) and reads summary.json and track.csv. */
-export function runCli(scenarioPath: string): { summary: any; rows: Row[] } {
+function runCli(scenarioPath: string): { summary: any; rows: Row[] } {
   const out = mkdtempSync(join(tmpdir(), 'swathe-indep-'));
   try {
     execFileSync(process.execPath, [join(ROOT, 'bin', 'swathe.mjs'), 'plan', scenarioPath, '--out', out],

@@ -1,0 +1,267 @@
+// Issue 2, "Done when": the CLI, run on scenarios no one here has seen, gives
+// hours, zenith ranges and galactic dwell close to an independent computation.
+// Here: two invented lunar sites (tests/fixtures/independent/moon-*.json: a
+// far-side crater site and one near the west limb), `swathe plan` run as a user
+// would, against a computation built only from Jean Meeus, "Astronomical
+// Algorithms" (2nd ed. 1998) through the `astronomia` npm package (4.2.0), which
+// shares no code with astronomy-engine:
+//   - Moon's geocentric position: ch. 47 (astronomia moonposition), mean ecliptic
+//     and equinox of date, km;
+//   - Sun: ch. 25/32 VSOP87 (astronomia solar.apparentVSOP87 with its nutation in
+//     longitude removed, so mean equinox of date with aberration, like ours);
+//   - the Moon-fixed frame: ch. 53 (astronomia moon.Moon: I = 1.54242 deg, node Ω,
+//     argument of latitude F, physical librations ρ, σ, τ). The mean lunar equator
+//     has its ascending node at Ω + σ/sin I (Meeus' position-angle formula) and
+//     inclination I + ρ to the ecliptic of date; its prime meridian lies F + 180 +
+//     τ - σ/sin I beyond that node. The test first checks that this frame gives
+//     back astronomia's own sub-Earth point (moon.physical, eqs. 53.1-53.2) within
+//     0.001 deg, so the frame is Meeus' and not a guess;
+//   - ecliptic of date to J2000 ecliptic: ch. 21 (astronomia precess.EclipticPrecessor);
+//     J2000 ecliptic to equator with the mean obliquity 84381.448" (IAU 1976, the
+//     J2000 mean ecliptic our summary uses);
+//   - galactic l/b: the ICRS-to-galactic definition of the Hipparcos Catalogue
+//     (ESA 1997, vol. 1, sec. 1.5.3): pole RA 192.85948, Dec +27.12825, l of the
+//     celestial pole 122.93192 deg;
+//   - TT = UTC + 69.184 s (TAI-UTC = 37 s since 2017, assumed unchanged);
+//   - lunar radius 1737.4 km (IAU mean radius), spherical; Sun and Earth
+//     elevations topocentric (the site's offset from the Moon's centre).
+//
+// Tolerances and why:
+// - zenith ranges: 0.04 deg, not the issue's 0.02. Meeus' libration series are an
+//   approximation of the lunar rotation: about 0.03 deg from the NASA table in
+//   latitude (see ephemeris-meeus.test.ts, which uses 0.04 too); our frame is the
+//   IAU model checked against NASA's table within 0.01 deg in
+//   ephemeris-nasa-subpoints.test.ts. The largest per-sample zenith difference is
+//   printed; this reference cannot show agreement better than its own error.
+// - hours (sun_down, earth_down, usable): 0.5% (the issue's figure). Why that holds
+//   with a 0.03-deg reference: the Sun climbs 360 deg per synodic month times
+//   cos(latitude) = 0.51 cos(lat) deg/h, so 0.03 deg moves a sunrise by 0.06 h; at
+//   most one 40-min sample flips per crossing (about 37 sunrises and sunsets in the
+//   span, so at most 25 h of about 6,400 h = 0.4%). Every sample whose flags differ
+//   must have a reference elevation within 0.06 deg of the threshold (asserted).
+// - galactic dwell (tens of hours here): each sample is 0.67 h, so 0.5% of 30 h is
+//   less than one sample. Allowed: max(0.5%, the hours of the samples whose
+//   in-band / near-centre flag differs), where each such sample must lie within
+//   0.06 deg of the band edge or radius in the reference (asserted).
+import { describe, expect, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { coord, moon, moonposition, nutation, planetposition, precess, solar } from 'astronomia';
+import earthData from 'astronomia/data/vsop87Bearth';
+
+const ROOT = join(import.meta.dirname, '..', '..');
+const D = Math.PI / 180;
+const earth = new planetposition.Planet(earthData);
+const AU_KM = 149_597_870.7;
+const MOON_R_KM = 1737.4;
+const TT_MINUS_UTC_S = 69.184;
+const I = 1.54242 * D; // Meeus ch. 53, inclination of the mean lunar equator
+const EPS0 = (84381.448 / 3600) * D;
+
+type V3 = [number, number, number];
+type M3 = [V3, V3, V3];
+// passive rotations (they turn the axes, not the vector)
+const rz = (t: number): M3 => [[Math.cos(t), Math.sin(t), 0], [-Math.sin(t), Math.cos(t), 0], [0, 0, 1]];
+const rx = (t: number): M3 => [[1, 0, 0], [0, Math.cos(t), Math.sin(t)], [0, -Math.sin(t), Math.cos(t)]];
+const mm = (a: M3, b: M3): M3 => a.map((r) => [0, 1, 2].map((j) => r[0] * b[0][j] + r[1] * b[1][j] + r[2] * b[2][j])) as M3;
+const mv = (a: M3, v: V3): V3 => a.map((r) => r[0] * v[0] + r[1] * v[1] + r[2] * v[2]) as V3;
+const mtv = (a: M3, v: V3): V3 => [0, 1, 2].map((j) => a[0][j] * v[0] + a[1][j] * v[1] + a[2][j] * v[2]) as V3;
+const sph = (lon: number, lat: number): V3 => [Math.cos(lat) * Math.cos(lon), Math.cos(lat) * Math.sin(lon), Math.sin(lat)];
+const lonLat = (v: V3): [number, number] => [Math.atan2(v[1], v[0]), Math.asin(v[2] / Math.hypot(v[0], v[1], v[2]))];
+const dot = (a: V3, b: V3) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+const wrapDeg = (d: number) => ((((d + 180) % 360) + 360) % 360) - 180;
+
+/** Meeus ch. 53: ecliptic (mean, of date) -> Moon-fixed, with the physical librations. */
+function moonFrame(jde: number): M3 {
+  const m = new moon.Moon(jde);
+  const node = m.Ω + m.σ / Math.sin(I);
+  return mm(rz(m.F + Math.PI + m.τ - m.σ / Math.sin(I)), mm(rx(-(I + m.ρ)), rz(node)));
+}
+
+/** Meeus ch. 21: mean ecliptic of date -> J2000 ecliptic, as a matrix from three precessed axes. */
+function precessionToJ2000(jde: number): M3 {
+  const p = new precess.EclipticPrecessor(2000 + (jde - 2451545) / 365.25, 2000);
+  const cols = ([[1, 0, 0], [0, 1, 0], [0, 0, 1]] as V3[]).map((v) => {
+    const [lo, la] = lonLat(v);
+    const r = p.precess(new coord.Ecliptic(lo, la));
+    return sph(r.lon, r.lat);
+  });
+  return [0, 1, 2].map((i) => [cols[0][i], cols[1][i], cols[2][i]]) as M3;
+}
+
+/** Hipparcos (ESA 1997, vol. 1, 1.5.3) galactic coordinates from J2000 RA/Dec, radians -> degrees. */
+function galactic(ra: number, dec: number): { l: number; b: number } {
+  const aG = 192.85948 * D, dG = 27.12825 * D, lN = 122.93192 * D;
+  const b = Math.asin(Math.sin(dec) * Math.sin(dG) + Math.cos(dec) * Math.cos(dG) * Math.cos(ra - aG));
+  const l = lN - Math.atan2(Math.cos(dec) * Math.sin(ra - aG), Math.sin(dec) * Math.cos(dG) - Math.cos(dec) * Math.sin(dG) * Math.cos(ra - aG));
+  return { l: ((l / D) % 360 + 360) % 360, b: b / D };
+}
+
+interface Epoch { frame: M3; prec: M3; moonKm: V3; sunKm: V3 }
+
+function epochAt(utcMs: number): Epoch {
+  const jde = utcMs / 86_400_000 + 2440587.5 + TT_MINUS_UTC_S / 86_400;
+  const p = moonposition.position(jde); // mean ecliptic and equinox of date (no nutation)
+  const s = solar.apparentVSOP87(earth, jde);
+  const dpsi = nutation.nutation(jde)[0];
+  const moonKm = sph(p.lon, p.lat).map((x) => x * p.range) as V3;
+  const sunKm = sph(s.lon - dpsi, s.lat).map((x) => x * s.range * AU_KM) as V3;
+  return { frame: moonFrame(jde), prec: precessionToJ2000(jde), moonKm, sunKm };
+}
+
+interface RefSample { sun: number; earth: number; dec: number; eclLat: number; l: number; b: number; z: V3 }
+
+function siteSample(e: Epoch, latDeg: number, lonDeg: number): RefSample {
+  const up = mtv(e.frame, sph(lonDeg * D, latDeg * D)); // zenith, ecliptic of date
+  const site: V3 = [up[0] * MOON_R_KM, up[1] * MOON_R_KM, up[2] * MOON_R_KM];
+  const toSun: V3 = [e.sunKm[0] - e.moonKm[0] - site[0], e.sunKm[1] - e.moonKm[1] - site[1], e.sunKm[2] - e.moonKm[2] - site[2]];
+  const toEarth: V3 = [-e.moonKm[0] - site[0], -e.moonKm[1] - site[1], -e.moonKm[2] - site[2]];
+  const elev = (v: V3) => Math.asin(dot(v, up) / Math.hypot(v[0], v[1], v[2])) / D;
+  const zJ = mv(e.prec, up); // J2000 ecliptic
+  const z: V3 = [zJ[0], Math.cos(EPS0) * zJ[1] - Math.sin(EPS0) * zJ[2], Math.sin(EPS0) * zJ[1] + Math.cos(EPS0) * zJ[2]];
+  const [ra, dec] = lonLat(z);
+  const g = galactic(ra, dec);
+  return { sun: elev(toSun), earth: elev(toEarth), dec: dec / D, eclLat: lonLat(zJ)[1] / D, l: g.l, b: g.b, z };
+}
+
+interface Row { ms: number; usable: number; sun: number; earth: number; ra: number; dec: number; l: number; b: number }
+
+function runCli(scenarioPath: string): { summary: any; rows: Row[] } {
+  const out = mkdtempSync(join(tmpdir(), 'swathe-indep-'));
+  try {
+    execFileSync(process.execPath, [join(ROOT, 'bin', 'swathe.mjs'), 'plan', scenarioPath, '--out', out],
+      { cwd: ROOT, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], timeout: 120_000 });
+    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    const lines = readFileSync(join(out, 'track.csv'), 'utf8').trim().split('\n');
+    const head = lines[0].split(',');
+    const ix = (k: string) => head.indexOf(k);
+    const rows = lines.slice(1).map((ln) => {
+      const c = ln.split(',');
+      return {
+        ms: Date.parse(c[ix('utc')]), usable: Number(c[ix('usable')]), sun: Number(c[ix('sun_elev_deg')]),
+        earth: Number(c[ix('earth_elev_deg')]), ra: Number(c[ix('ra_deg')]), dec: Number(c[ix('dec_deg')]),
+        l: Number(c[ix('l_deg')]), b: Number(c[ix('b_deg')]),
+      };
+    });
+    return { summary, rows };
+  } finally {
+    rmSync(out, { recursive: true, force: true });
+  }
+}
+
+const relErr = (a: number, ref: number) => Math.abs(a - ref) / Math.max(Math.abs(ref), 1e-12);
+const FIXTURES = ['moon-farside.json', 'moon-limb.json'].map((f) => join(ROOT, 'tests', 'fixtures', 'independent', f));
+const NEAR = 0.06; // deg: how close to a threshold a disagreeing sample must be (Meeus ~0.03 deg, doubled)
+
+describe('Meeus ch. 53 Moon-fixed frame built here', () => {
+  it("gives back astronomia's own sub-Earth and sub-solar points (moon.physical) within 0.001 / 0.01 deg", () => {
+    let worstE = 0, worstS = 0;
+    for (let k = 0; k < 120; k++) {
+      const utcMs = Date.UTC(2032, 2, 1) + k * 4.37 * 86_400_000;
+      const jde = utcMs / 86_400_000 + 2440587.5 + TT_MINUS_UTC_S / 86_400;
+      const e = epochAt(utcMs);
+      const [cm, , cs] = moon.physical(jde, earth);
+      const [l, b] = lonLat(mv(e.frame, e.moonKm.map((x) => -x) as V3));
+      worstE = Math.max(worstE, Math.abs(wrapDeg((l - cm.lon) / D)), Math.abs((b - cm.lat) / D));
+      const toSun = [0, 1, 2].map((i) => e.sunKm[i] - e.moonKm[i]) as V3;
+      const [l0, b0] = lonLat(mv(e.frame, toSun));
+      worstS = Math.max(worstS, Math.abs(wrapDeg((l0 - cs.lon) / D)), Math.abs((b0 - cs.lat) / D));
+    }
+    expect(worstE).toBeLessThan(0.001);
+    // astronomia's sub-solar point keeps the nutation in the Sun's longitude (up to 0.005 deg) and
+    // uses Meeus' approximate heliocentric correction; ours removes the nutation: 0.01 deg
+    expect(worstS).toBeLessThan(0.01);
+  });
+});
+
+describe('swathe plan summary vs an independent Meeus/astronomia computation (Moon sites)', () => {
+  it('hours within 0.5%, zenith ranges within 0.04 deg, galactic dwell within 0.5% or the flipped samples', () => {
+    const runs = FIXTURES.map((f) => ({ f, ...runCli(f) }));
+    // both fixtures share span and step: one set of epochs serves both sites
+    const grid = runs[0].rows.map((r) => r.ms);
+    for (const r of runs) expect(r.rows.map((x) => x.ms)).toEqual(grid);
+    const epochs = grid.map(epochAt);
+    const report: string[] = [];
+    for (const { f, summary: s, rows } of runs) {
+      const name = f.split('/').pop();
+      const sc = s.scenario;
+      const c = sc.constraints;
+      const stepH = s.step_min / 60;
+      const endMs = Date.parse(sc.span.end);
+      // the sample grid: t_i = start + i*step before end, weight min(step, end - t_i)
+      const startMs = Date.parse(sc.span.start);
+      const n = Math.ceil((endMs - startMs) / (s.step_min * 60_000));
+      expect(s.samples, `${name} samples`).toBe(n);
+      const w = grid.map((t) => Math.min(s.step_min * 60_000, endMs - t) / 3_600_000);
+      const ref = epochs.map((e) => siteSample(e, sc.site.lat_deg, sc.site.lon_deg));
+      const sunThr = c.sun_max_elev_deg ?? 0, earthThr = c.earth_max_elev_deg ?? 0;
+      const band = sc.map.galactic_band_deg, rad = sc.map.galactic_center_radius_deg;
+      const gcDist = (l: number, b: number) => Math.acos(Math.min(1, Math.cos(b * D) * Math.cos(l * D))) / D;
+      let total = 0, sunDown = 0, earthDown = 0, usable = 0, inBand = 0, near = 0;
+      let flipUse = 0, flipBandH = 0, flipNearH = 0, worstZ = 0, worstSun = 0, worstEarth = 0;
+      ref.forEach((r, i) => {
+        total += w[i];
+        const sd = r.sun < sunThr, ed = r.earth < earthThr;
+        if (sd) sunDown += w[i];
+        if (ed) earthDown += w[i];
+        const u = (c.sun_max_elev_deg === null || sd) && (c.earth_max_elev_deg === null || ed);
+        if (u) usable += w[i];
+        if (u && Math.abs(r.b) < band) inBand += w[i];
+        if (u && gcDist(r.l, r.b) < rad) near += w[i];
+        const row = rows[i];
+        worstZ = Math.max(worstZ, Math.acos(Math.min(1, dot(r.z, sph(row.ra * D, row.dec * D)))) / D);
+        worstSun = Math.max(worstSun, Math.abs(r.sun - row.sun));
+        worstEarth = Math.max(worstEarth, Math.abs(r.earth - row.earth));
+        if ((u ? 1 : 0) !== row.usable) {
+          flipUse++;
+          const m = Math.min(Math.abs(r.sun - sunThr), Math.abs(r.earth - earthThr));
+          expect(m, `${name} sample ${i}: usable differs ${m} deg away from a threshold`).toBeLessThan(NEAR);
+        }
+        if (u && row.usable) {
+          if ((Math.abs(r.b) < band) !== (Math.abs(row.b) < band)) {
+            flipBandH += w[i];
+            expect(Math.abs(Math.abs(r.b) - band), `${name} sample ${i}: in-band differs away from the edge`).toBeLessThan(NEAR);
+          }
+          if ((gcDist(r.l, r.b) < rad) !== (gcDist(row.l, row.b) < rad)) {
+            flipNearH += w[i];
+            expect(Math.abs(gcDist(r.l, r.b) - rad), `${name} sample ${i}: near-centre differs away from the radius`).toBeLessThan(NEAR);
+          }
+        }
+      });
+      // the scenarios exercise the comparisons
+      expect(sunDown).toBeGreaterThan(0.4 * total);
+      expect(usable).toBeGreaterThan(0.05 * total);
+      report.push(`${name}: per-sample worst zenith ${worstZ.toFixed(4)} deg, Sun elevation ${worstSun.toFixed(4)}, Earth elevation ${worstEarth.toFixed(4)}; usable flags differ at ${flipUse} of ${rows.length}`);
+
+      expect(Math.abs(s.hours.total - total), `${name} total hours`).toBeLessThan(1e-6);
+      const hours: [string, number, number][] = [['sun_down', s.hours.sun_down, sunDown], ['earth_down', s.hours.earth_down, earthDown], ['usable', s.hours.usable, usable]];
+      for (const [key, a, b] of hours) {
+        expect(relErr(a, b), `${name} hours.${key} ${a} vs Meeus ${b}`).toBeLessThan(0.005);
+        report.push(`${name} hours.${key}: ${a.toFixed(3)} vs ${b.toFixed(3)} h (${(100 * relErr(a, b)).toFixed(3)}%)`);
+      }
+      const zen: [string, number, number][] = [
+        ['dec_min_deg', s.zenith.dec_min_deg, Math.min(...ref.map((r) => r.dec))],
+        ['dec_max_deg', s.zenith.dec_max_deg, Math.max(...ref.map((r) => r.dec))],
+        ['ecl_lat_min_deg', s.zenith.ecl_lat_min_deg, Math.min(...ref.map((r) => r.eclLat))],
+        ['ecl_lat_max_deg', s.zenith.ecl_lat_max_deg, Math.max(...ref.map((r) => r.eclLat))],
+      ];
+      for (const [key, a, b] of zen) {
+        expect(Math.abs(a - b), `${name} zenith.${key} ${a} vs Meeus ${b}`).toBeLessThan(0.04);
+        report.push(`${name} zenith.${key}: ${a.toFixed(4)} vs ${b.toFixed(4)} (diff ${Math.abs(a - b).toFixed(4)} deg)`);
+      }
+      const gal: [string, number, number, number][] = [
+        ['usable_hours_zenith_in_band', s.galactic.usable_hours_zenith_in_band, inBand, flipBandH],
+        ['usable_hours_zenith_near_center', s.galactic.usable_hours_zenith_near_center, near, flipNearH],
+      ];
+      for (const [key, a, b, flipH] of gal) {
+        // usable flips also move dwell hours: count those samples' weight too
+        const allowed = Math.max(0.005 * b, flipH + flipUse * stepH) + 1e-9;
+        expect(Math.abs(a - b), `${name} galactic.${key} ${a} vs Meeus ${b} (allowed ${allowed})`).toBeLessThanOrEqual(allowed);
+        report.push(`${name} galactic.${key}: ${a.toFixed(3)} vs ${b.toFixed(3)} h (allowed ${allowed.toFixed(3)})`);
+      }
+    }
+    console.log(report.join('\n'));
+  }, 120_000);
+});
