@@ -31,8 +31,10 @@
 //   approximation of the lunar rotation: about 0.03 deg from the NASA table in
 //   latitude (see ephemeris-meeus.test.ts, which uses 0.04 too); our frame is the
 //   IAU model checked against NASA's table within 0.01 deg in
-//   ephemeris-nasa-subpoints.test.ts. The largest per-sample zenith difference is
-//   printed; this reference cannot show agreement better than its own error.
+//   ephemeris-nasa-subpoints.test.ts. The frame built here is itself measured
+//   against that NASA table below (0.028 deg at worst in 2021), and the largest
+//   per-sample zenith difference is printed: this reference cannot show agreement
+//   better than its own error.
 // - hours (sun_down, earth_down, usable): 0.5% (the issue's figure). Why that holds
 //   with a 0.03-deg reference: the Sun climbs 360 deg per synodic month times
 //   cos(latitude) = 0.51 cos(lat) deg/h, so 0.03 deg moves a sunrise by 0.06 h; at
@@ -50,6 +52,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { coord, moon, moonposition, nutation, planetposition, precess, solar } from 'astronomia';
 import earthData from 'astronomia/data/vsop87Bearth';
+import { readSubpoints } from '../fixtures/ephemeris/parse';
 
 const ROOT = join(import.meta.dirname, '..', '..');
 const D = Math.PI / 180;
@@ -173,6 +176,28 @@ describe('Meeus ch. 53 Moon-fixed frame built here', () => {
     // astronomia's sub-solar point keeps the nutation in the Sun's longitude (up to 0.005 deg) and
     // uses Meeus' approximate heliocentric correction; ours removes the nutation: 0.01 deg
     expect(worstS).toBeLessThan(0.01);
+  });
+});
+
+describe("the reference's own error: this Meeus frame vs the NASA SVS 2021 table (JPL DE421)", () => {
+  it('sub-Earth and sub-solar selenographic points within 0.04 deg (Meeus ch. 53 is an approximation)', () => {
+    // NASA Scientific Visualization Studio, "Moon Phase and Libration 2021" (tests/fixtures/ephemeris/
+    // moon-subpoints-2021-3h.txt): this is what bounds the Moon tolerances below.
+    const rows = readSubpoints().filter((_, i) => i % 8 === 0);
+    let worstE = 0, worstS = 0;
+    for (const r of rows) {
+      const e = epochAt(r.t_ms);
+      const [el, eb] = lonLat(mv(e.frame, e.moonKm.map((x) => -x) as V3));
+      const [sl, sb] = lonLat(mv(e.frame, [0, 1, 2].map((i) => e.sunKm[i] - e.moonKm[i]) as V3));
+      const ang = (l1: number, b1: number, l2: number, b2: number) =>
+        Math.acos(Math.min(1, dot(sph(l1, b1), sph(l2 * D, b2 * D)))) / D;
+      worstE = Math.max(worstE, ang(el, eb, r.elon, r.elat));
+      worstS = Math.max(worstS, ang(sl, sb, r.slon, r.slat));
+    }
+    console.log(`Meeus frame vs NASA SVS 2021 (${rows.length} rows): sub-Earth point worst ${worstE.toFixed(4)} deg, sub-solar point worst ${worstS.toFixed(4)} deg`);
+    expect(rows.length).toBeGreaterThan(300);
+    expect(worstE).toBeLessThan(0.04);
+    expect(worstS).toBeLessThan(0.04);
   });
 });
 
