@@ -17,6 +17,7 @@ import { galacticSummary, hoursSummary, usableMaskStage, zenithSummary } from '.
 import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, type HitMap } from '../core/coverage';
 import { frequencySummary, SENSITIVITY_DEFAULTS, sensitivityFor, SKY_MODEL_LABEL, SKY_MODEL_NOTE } from '../core/stats';
 import { stepMin } from '../core/time';
+import { macrotask } from './macrotask';
 
 export type ProgressFn = (stage: string, fraction: number) => void;
 
@@ -49,18 +50,6 @@ interface Internals {
 }
 const internals = new WeakMap<PlanResult, Internals>();
 
-/** A macrotask: setImmediate in Node, a MessageChannel message in browsers and workers. */
-const macrotask: () => Promise<void> = (() => {
-  const g = globalThis as { setImmediate?: (f: () => void) => unknown };
-  if (typeof g.setImmediate === 'function') return () => new Promise<void>((r) => g.setImmediate!(r));
-  if (typeof MessageChannel === 'function') {
-    const ch = new MessageChannel();
-    const queue: (() => void)[] = [];
-    ch.port1.onmessage = () => queue.shift()?.();
-    return () => new Promise<void>((r) => { queue.push(r); ch.port2.postMessage(0); });
-  }
-  return () => new Promise<void>((r) => setTimeout(r, 0));
-})();
 
 class Driver {
   private lastTurn: number;

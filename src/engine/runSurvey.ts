@@ -9,6 +9,7 @@ import { parseScenario, ScenarioError } from '../core/scenario';
 import { surveyStage, type SurveyOptions, type SurveyResult } from '../core/survey';
 import { surveyLayers, type SurveyLayer } from '../core/surveyLayer';
 import { CancelledError, SLICE_MS } from './runPlan';
+import { macrotask } from './macrotask';
 
 export interface SurveyRunOptions {
   onProgress?: (fraction: number) => void;
@@ -19,17 +20,6 @@ export interface SurveyRunOptions {
 
 export interface SurveyRun { result: SurveyResult; layers: SurveyLayer[] }
 
-const macrotask: () => Promise<void> = (() => {
-  const g = globalThis as { setImmediate?: (f: () => void) => unknown };
-  if (typeof g.setImmediate === 'function') return () => new Promise<void>((r) => g.setImmediate!(r));
-  if (typeof MessageChannel === 'function') {
-    const ch = new MessageChannel();
-    const queue: (() => void)[] = [];
-    ch.port1.onmessage = () => queue.shift()?.();
-    return () => new Promise<void>((r) => { queue.push(r); ch.port2.postMessage(0); });
-  }
-  return () => new Promise<void>((r) => setTimeout(r, 0));
-})();
 
 /** Validates the scenario, runs the survey in slices of SLICE_MS with a turn of the event loop between them. */
 export async function runSurvey(input: Scenario, options: SurveyOptions, run: SurveyRunOptions = {}): Promise<SurveyRun> {
