@@ -1,6 +1,7 @@
 import { mkdirSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
+import { prepareOutDir } from './outDir';
 import { describeEstimate, estimateRun } from '../core/limits';
 import { CHUNK_ROWS, coverageCsvChunks, trackCsvChunks } from '../core/export/csv';
 import { coverageFits } from '../core/export/fits';
@@ -133,21 +134,3 @@ function argError(e: unknown): string {
   return oneLine(msg, 200);
 }
 
-function prepareOutDir(dir: string, shown: string): void {
-  try {
-    const st = statSync(dir);
-    if (!st.isDirectory()) throw new UsageError(`--out ${oneLine(shown, 200)}: exists and is not a directory`);
-    return;
-  } catch (e) {
-    if (e instanceof UsageError) throw e;
-    if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw e;
-  }
-  try {
-    mkdirSync(dir, { recursive: true });
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    if (code === 'ENOTDIR' || code === 'EEXIST') throw new UsageError(`--out ${oneLine(shown, 200)}: cannot be made (a part of the path is a file)`);
-    if (code === 'EACCES' || code === 'EPERM' || code === 'EROFS') throw new UsageError(`--out ${oneLine(shown, 200)}: not allowed to create this directory`);
-    throw e;
-  }
-}

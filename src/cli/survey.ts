@@ -5,6 +5,7 @@
 import { mkdirSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
+import { prepareOutDir } from './outDir';
 import { Worker } from 'node:worker_threads';
 import type { Scenario } from '../core/types';
 import { estimateRun } from '../core/limits';
@@ -123,23 +124,6 @@ function parse(argv: string[]): SurveyArgs | 'help' {
   };
 }
 
-function prepareOutDir(dir: string, shown: string): void {
-  try {
-    if (!statSync(dir).isDirectory()) throw new UsageError(`--out ${oneLine(shown, 200)}: exists and is not a directory`);
-    return;
-  } catch (e) {
-    if (e instanceof UsageError) throw e;
-    if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw e;
-  }
-  try {
-    mkdirSync(dir, { recursive: true });
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    if (code === 'ENOTDIR' || code === 'EEXIST') throw new UsageError(`--out ${oneLine(shown, 200)}: cannot be made (a part of the path is a file)`);
-    if (code === 'EACCES' || code === 'EPERM' || code === 'EROFS') throw new UsageError(`--out ${oneLine(shown, 200)}: not allowed to create this directory`);
-    throw e;
-  }
-}
 
 /** Output file name of a run: survey.csv, or survey.shard-I-of-N.csv (I zero-padded to N's width). */
 export function surveyFileName(shard: SurveyShard): string {
