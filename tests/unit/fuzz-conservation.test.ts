@@ -11,8 +11,11 @@ import type { BodyName, Scenario } from '../../src/core/types';
 // This follows from the definition of exposure (ARCHITECTURE.md section 2);
 // the solid angle is the beam as truncated at B < 1e-3 (makeBeam), which for the
 // Gaussian is pi/(4 ln 2) FWHM^2 = 1.1331 FWHM^2 (antenna theory texts) less 0.1%.
-// Scenarios are random and invented; beams are kept >= 4 output pixels wide so
-// pixelisation does not dominate (nside 64: 0.92 deg pixels).
+// Scenarios are random and invented. Beams are kept >= 8 output pixels wide
+// (nside 64: 0.92 deg pixels): HEALPix's pixel-centre quadrature near a pole
+// under-counts a narrow beam by about (pixel/FWHM)^2 — healpy itself gives
+// -0.96% for a 4 deg Gaussian at nside 64 centred at 88.3 deg latitude, and
+// -0.03% at 45 deg — which is a property of the grid, not of the exposure.
 // A fixed seed always, plus a fresh one each run (printed in the test name, so a
 // failure can be replayed with FUZZ_SEED=<seed>).
 const fixedSeed = Number(process.env.FUZZ_SEED ?? 20261201);
@@ -25,7 +28,7 @@ const scenarioArb = fc
     lon: fc.double({ min: -180, max: 179.99, noNaN: true }),
     startDay: fc.integer({ min: 0, max: 3650 }),
     spanH: fc.integer({ min: 6, max: 24 * 20 }),
-    fwhmDeg: fc.array(fc.double({ min: 4, max: 30, noNaN: true }), { minLength: 1, maxLength: 3 }),
+    fwhmDeg: fc.array(fc.double({ min: 8, max: 30, noNaN: true }), { minLength: 1, maxLength: 3 }),
     model: fc.constantFrom<'gaussian' | 'airy'>('gaussian', 'airy'),
     sun: fc.option(fc.integer({ min: -18, max: 10 }), { nil: null }),
     earth: fc.option(fc.integer({ min: -5, max: 5 }), { nil: null }),
