@@ -24,7 +24,7 @@ async function main(): Promise<void> {
   console.log(`swathe benchmark, node ${process.version}, ${new Date().toISOString()}`);
   for (const l of await ephemerisLines()) console.log(l);
   const cov = await benchCoverage((l) => console.log(l));
-  const survey = await (await import('./survey')).benchSurvey((l) => console.log(l)); // issue 5 item 1 (helper V)
+  const survey = await (await import('./survey')).benchSurvey((l) => console.log(l)); // issue 5 item 1
   if (json) console.log(JSON.stringify({ scenarios: cov.scenarios, survey: survey.result }));
 }
 

@@ -8,7 +8,6 @@
 // Printed: wall and CPU time, the ratio to the plans, and the largest
 // deviation of the sampled sites' survey figures from their plans. The goal
 // (under 60 s with every figure within 1% of plan) is printed, not asserted.
-// Owned by helper V.
 
 import { availableParallelism, loadavg } from 'node:os';
 import type { Scenario } from '../src/core/types';

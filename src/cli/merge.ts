@@ -1,5 +1,5 @@
 // `swathe merge`: joins survey shards into the unsharded survey.csv (byte for
-// byte what one unsharded run writes). Owned by helper V.
+// byte what one unsharded run writes).
 
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';

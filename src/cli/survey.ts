@@ -1,6 +1,6 @@
 // `swathe survey`: the site survey (issue 5 item 1) over a grid of the body,
 // one CSV row per site; --shard I/N for batch runners, --jobs J for threads
-// on this machine. Owned by helper V.
+// on this machine.
 
 import { mkdirSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';

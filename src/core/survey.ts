@@ -1,4 +1,4 @@
-// Site survey (issue 5 item 1) — owned by helper V; helper E: the survey is reassigned to V, please do not edit.
+// Site survey (issue 5 item 1).
 //
 // Figures of merit for a grid of sites over the body, each computed with the
 // stages and definitions a plan uses (swathe.summary/1), so that every site's

@@ -1,5 +1,4 @@
 // The survey's CSV file (swathe.survey/1), its shards and their merge.
-// Owned by helper V (issue 5 item 1).
 //
 // Layout, one file:
 //   line 1  "# swathe.survey/1 ..." : body, grid, frequencies, span, sensitivity

@@ -1,5 +1,5 @@
 // Survey results as map layers for the app (globe shading, flat map of the
-// body): one grid of values per figure and frequency. Owned by helper V.
+// body): one grid of values per figure and frequency.
 //
 // A layer has the shape the globe's shading takes (src/ui/globe/SiteGlobe.tsx
 // GlobeShading: nLat, nLon, cell-centre lat_deg/lon_deg, row-major `fraction`

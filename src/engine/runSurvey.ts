@@ -2,7 +2,7 @@
 // cancellation, like runPlan: in Node (tests, tools) and in the survey Web
 // Worker (surveyWorker.ts, driven by surveyEngine.ts). Returns the result and
 // its map layers (src/core/surveyLayer.ts) for the globe and the flat map.
-// Added by helper V (issue 5 item 1); it imports from runPlan.ts and changes nothing there.
+// Issue 5 item 1; it reuses runPlan.ts's validation and slicing.
 
 import type { Scenario } from '../core/types';
 import { parseScenario, ScenarioError } from '../core/scenario';

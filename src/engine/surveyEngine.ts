@@ -1,4 +1,4 @@
-// The app's handle on the survey workers (added by helper V): run a survey
+// The app's handle on the survey workers: run a survey
 // with progress, spread over `workers` Web Workers (each takes every W-th
 // site); cancel terminates them (the next run starts fresh ones).
 

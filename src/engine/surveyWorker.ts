@@ -1,5 +1,5 @@
 /// <reference lib="webworker" />
-// The module Web Worker the app runs surveys in (added by helper V; see runSurvey.ts).
+// The module Web Worker the app runs surveys in (see runSurvey.ts).
 import { attachSurveyWorker, type SurveyWorkerScope } from './runSurvey';
 
 attachSurveyWorker(self as unknown as SurveyWorkerScope);

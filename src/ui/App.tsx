@@ -59,7 +59,7 @@ export function App() {
     [parsed, estimate],
   );
   const runnable = scenario !== null && estimate !== null && estimate.problems.length === 0;
-  // site survey and noise map (helper W)
+  // site survey and noise map
   const survey = useSurvey(runnable ? scenario : null);
   const [quantity, setQuantity] = useState<SkyQuantity>('exposure');
   const surveyGlobeLayer = survey.showOnGlobe && survey.layer && survey.done?.scenario.site.body === draft.body ? survey.globeLayer : null;

@@ -7,7 +7,7 @@ import { noiseRange, noiseScale, NOISE_TOP_QUANTILE, colourBarTitle, formatViewV
 import { checkStep, estimateSurvey } from '../../src/ui/survey/surveyEstimate';
 import { layerValueText } from '../../src/ui/survey/SurveyPanel';
 
-// The app-side pieces of the survey and the noise map (helper W).
+// The app-side pieces of the survey and the noise map.
 
 const SHORT = {
   ...DEMO_SCENARIO,

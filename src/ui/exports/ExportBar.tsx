@@ -15,7 +15,7 @@ export interface ViewState {
   freqIndex: number; frame: SkyFrame; scale: SkyScale; flipLongitude: boolean; compare: boolean;
   beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
-  /** 'noise': the figure shows the radiometer noise map (K) instead of exposure (added by helper W) */
+  /** 'noise': the figure shows the radiometer noise map (K) instead of exposure */
   quantity?: 'exposure' | 'noise';
 }
 

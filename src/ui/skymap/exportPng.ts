@@ -18,7 +18,7 @@ import { LookupCache, type SkyFrame } from './skyProjection';
 
 // The sky map as a PNG figure for a report: title, map, colour bar, legend and
 // a caption stating the scenario. Drawn on its own canvas at the width asked
-// for (U1 passes max(1600, 2 x on-screen width)); needs no mounted SkyMap.
+// for (the app passes max(1600, 2 x on-screen width)); needs no mounted SkyMap.
 
 export interface SkyMapPngOptions {
   freqIndex: number;

@@ -35,7 +35,7 @@ export interface Draft {
   nside: string;
   band: string;
   centre: string;
-  /** optional sensitivity inputs (helper W); '' = the default in stats.ts SENSITIVITY_DEFAULTS */
+  /** optional sensitivity inputs; '' = the default in stats.ts SENSITIVITY_DEFAULTS */
   bandwidth: string;
   receiverK: string;
 }
