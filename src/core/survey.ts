@@ -26,14 +26,11 @@
 //    included; M p = R z_raw on a sphere). This equals the plan's
 //    asin(n . (M^T s - p) / |M^T s - p|) up to rounding (~1e-15), so a
 //    usable flag could differ only for a sample within ~1e-13 deg of a limit.
-//  - The hit map is the plan's own stage (hitMapStage) on that track. The
-//    covered sky uses the plan's test (coverage.ts coveredStage: an output pixel
+//  - The hit map is the plan's own stage (hitMapStage) on that track, and the
+//    covered sky the plan's own stage (coverage.ts coveredStage: an output pixel
 //    is covered when the centroid of a fine hit pixel lies within FWHM/2 of its
-//    centre, the same centroids and the same dot product) with the hit pixels
-//    grouped for the survey's speed (groups about 2.5 output pixels wide,
-//    measured 2.5x faster at nside 128 on the demo); the grouping only decides
-//    which pixels are tested against which centroids, so the mask is the
-//    plan's (tests/unit/survey-plan.test.ts compares the masks).
+//    centre; its grouping of about 2.5 output pixels was measured 2.5x faster
+//    at nside 128 than grouping by the radius).
 //  - The median noise (radiometer equation, stats.ts) needs the exposure at
 //    the covered pixels; the survey evaluates it with the plan's arithmetic
 //    (hit map degraded to FWHM/6, centroids, tabulated beam, cutoff), gathered
@@ -63,7 +60,7 @@ import { BODIES, KM_PER_AU, siteGeometry } from './bodies';
 import { bodyNodesStage, fastPathPays, InterpolatedBody, sampleGrid, trackStage, type SampleGrid } from './ephemeris';
 import { galacticSummary, hoursSummary, usableMask } from './usable';
 import {
-  beamProfileFor, beamTable, degradeHitMap, hitMapStage, hitNsideFor, nsideForResolution,
+  beamProfileFor, beamTable, coveredStage, degradeHitMap, hitMapStage, hitNsideFor, nsideForResolution,
   CENTRE_TABLE_MAX_NSIDE, EXPOSURE_HIT_PER_FWHM, type BeamProfile, type HitMap,
 } from './coverage';
 import { maskedMedian, SENSITIVITY_DEFAULTS, skyTemperatureK, usableHoursInBand, usableHoursNearCenter } from './stats';
@@ -404,47 +401,12 @@ function groupStarts(h: HitMap, groupNside: number): { starts: Int32Array; div: 
   return { starts: Int32Array.from(starts), div };
 }
 
-/** Group width (radius) for the covered-sky search, in output pixels (measured best near 2.5 at nside 64..256). */
-const COVER_GROUP_PIXELS = 2.5;
-
 /**
- * The plan's covered mask (RING, 1 = covered): pixels whose centre lies
- * within radiusRad of a fine hit pixel's centroid, tested by the plan's
- * expression, with the survey's grouping (see the header).
+ * The plan's covered mask (RING, 1 = covered), the very stage `plan` runs, so
+ * the survey's covered fractions are the plan's by construction.
  */
 export function* coveredMaskStage(hit: HitMap, radiusRad: number, nside: number): Stage<Uint8Array> {
-  if (!(radiusRad > 0)) throw new RangeError(`coverage radius must be > 0, got ${radiusRad}`);
-  const h = hit;
-  const mask = new Uint8Array(nside2npix(nside));
-  const cen = centroidsOf(h);
-  const groupNside = groupNsideFor(h.nside, COVER_GROUP_PIXELS * nside2resolRad(nside));
-  const { starts, div } = groupStarts(h, groupNside);
-  const radius = Math.min(Math.PI, radiusRad + maxPixradRad(groupNside));
-  const cosR = Math.cos(radiusRad);
-  const scratch = { buf: new Float64Array(0) };
-  const groups = starts.length - 1;
-  let work = 0;
-  for (let g = 0; g < groups; g++) {
-    const k0 = starts[g], k1 = starts[g + 1];
-    const c = pix2vecNest(groupNside, Math.floor(h.pix[k0] / div));
-    const ranges = queryDiscRingRanges(nside, c[0], c[1], c[2], radius, false);
-    for (let r = 0; r < ranges.length; r += 2) {
-      const end = ranges[r + 1];
-      const [centres, base] = centresOf(nside, ranges[r], end, scratch);
-      for (let q = ranges[r]; q < end; q++) {
-        if (mask[q]) continue;
-        const o = 3 * (q - base);
-        const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
-        for (let k = k0; k < k1; k++) {
-          if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz >= cosR) { mask[q] = 1; break; }
-        }
-      }
-      work += (end - ranges[r]) * 4;
-    }
-    work += 20;
-    if (work >= 100_000) { work = 0; yield g / groups; }
-  }
-  return mask;
+  return yield* coveredStage(hit, radiusRad, nside);
 }
 
 // ---------------------------------------------------------------------------
