@@ -293,7 +293,7 @@ function checkBeam(beam: BeamProfile): void {
  * hit pixel (plus a final end index) and the parent's centre. One disc query
  * around a parent, widened by the parent's radius, serves all its children.
  */
-function groupHits(h: HitMap, groupNside: number): { starts: Int32Array; centres: Float64Array } {
+export function groupHits(h: HitMap, groupNside: number): { starts: Int32Array; centres: Float64Array } {
   const div = (h.nside / groupNside) ** 2;
   const n = h.pix.length;
   const starts: number[] = [];
@@ -312,14 +312,14 @@ function groupHits(h: HitMap, groupNside: number): { starts: Int32Array; centres
 }
 
 /** The coarsest nside (not coarser than needed, not finer than the hit map) whose pixels fit within `maxRadRad`. */
-function groupNsideFor(hitNside: number, maxRadRad: number): number {
+export function groupNsideFor(hitNside: number, maxRadRad: number): number {
   let g = 1;
   while (g < hitNside && maxPixradRad(g) > maxRadRad) g *= 2;
   return g;
 }
 
 /** Centroid directions of all hit pixels, x, y, z interleaved. */
-function centroids(h: HitMap): Float64Array {
+export function centroids(h: HitMap): Float64Array {
   const out = new Float64Array(3 * h.pix.length);
   const c = new Float64Array(3);
   for (let k = 0; k < h.pix.length; k++) {
@@ -337,7 +337,7 @@ export const CENTRE_TABLE_MAX_NSIDE = 256;
  * when it is small enough, else computed into `scratch`. Returns the array
  * and the pixel index its first entry stands for.
  */
-function centresOf(nside: number, a: number, b: number, scratch: { buf: Float64Array }): [Float64Array, number] {
+export function centresOf(nside: number, a: number, b: number, scratch: { buf: Float64Array }): [Float64Array, number] {
   if (nside <= CENTRE_TABLE_MAX_NSIDE) return [pixelCentersRing(nside), 0];
   if (scratch.buf.length < 3 * (b - a)) scratch.buf = new Float64Array(3 * (b - a) * 2);
   const out = scratch.buf;

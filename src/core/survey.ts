@@ -60,12 +60,12 @@ import { BODIES, KM_PER_AU, siteGeometry } from './bodies';
 import { bodyNodesStage, fastPathPays, InterpolatedBody, sampleGrid, trackStage, type SampleGrid } from './ephemeris';
 import { galacticSummary, hoursSummary, usableMask } from './usable';
 import {
-  beamProfileFor, beamTable, coveredStage, degradeHitMap, hitMapStage, hitNsideFor, nsideForResolution,
-  CENTRE_TABLE_MAX_NSIDE, EXPOSURE_HIT_PER_FWHM, type BeamProfile, type HitMap,
+  beamProfileFor, beamTable, centresOf, centroids, coveredStage, degradeHitMap, groupHits, groupNsideFor, hitMapStage, hitNsideFor, nsideForResolution,
+  EXPOSURE_HIT_PER_FWHM, type BeamProfile, type HitMap,
 } from './coverage';
 import { maskedMedian, SENSITIVITY_DEFAULTS, skyTemperatureK, usableHoursInBand, usableHoursNearCenter } from './stats';
 import { ICRS_TO_GAL, galDegToVec } from './frames';
-import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, pix2vecRingInto, pixelCentersRing, queryDiscRingRanges } from './healpix';
+import { maxPixradRad } from './healpix';
 
 const DEG = Math.PI / 180;
 
@@ -364,42 +364,8 @@ function* siteByPlanPath(s: Scenario, halfFwhmDeg: number[]): Stage<{ track: Tra
 // ---------------------------------------------------------------------------
 // Covered sky
 
-/** Centres of RING pixels [a, b) as the plan's coverage reads them (the cached table up to CENTRE_TABLE_MAX_NSIDE). */
-function centresOf(nside: number, a: number, b: number, scratch: { buf: Float64Array }): [Float64Array, number] {
-  if (nside <= CENTRE_TABLE_MAX_NSIDE) return [pixelCentersRing(nside), 0];
-  if (scratch.buf.length < 3 * (b - a)) scratch.buf = new Float64Array(3 * (b - a) * 2);
-  const out = scratch.buf;
-  for (let q = a, o = 0; q < b; q++, o += 3) pix2vecRingInto(nside, q, out, o);
-  return [out, a];
-}
-
-/** Centroid directions of the hit pixels (coverage.ts centroid: the normalised sums, or the pixel centre). */
-function centroidsOf(h: HitMap): Float64Array {
-  const nh = h.pix.length;
-  const cen = new Float64Array(3 * nh);
-  for (let k = 0; k < nh; k++) {
-    const x = h.sx[k], y = h.sy[k], z = h.sz[k];
-    const r = Math.sqrt(x * x + y * y + z * z);
-    if (r > 1e-12 * h.hours[k]) { cen[3 * k] = x / r; cen[3 * k + 1] = y / r; cen[3 * k + 2] = z / r; } else {
-      const c = pix2vecNest(h.nside, h.pix[k]);
-      cen[3 * k] = c[0]; cen[3 * k + 1] = c[1]; cen[3 * k + 2] = c[2];
-    }
-  }
-  return cen;
-}
-
-/** Hit pixels grouped under parents at groupNside: first index of each group (and a final end). */
-function groupStarts(h: HitMap, groupNside: number): { starts: Int32Array; div: number } {
-  const div = (h.nside / groupNside) ** 2;
-  const starts: number[] = [];
-  let last = -1;
-  for (let k = 0; k < h.pix.length; k++) {
-    const p = Math.floor(h.pix[k] / div);
-    if (p !== last) { starts.push(k); last = p; }
-  }
-  starts.push(h.pix.length);
-  return { starts: Int32Array.from(starts), div };
-}
+// Groups, centroids and pixel centres are coverage.ts's own, so the survey's
+// arithmetic is the plan's.
 
 /**
  * The plan's covered mask (RING, 1 = covered), the very stage `plan` runs, so
@@ -423,12 +389,6 @@ function cachedBeamTable(beam: BeamProfile): ReturnType<typeof beamTable> {
   return t;
 }
 
-function groupNsideFor(hitNside: number, maxRadRad: number): number {
-  let g = 1;
-  while (g < hitNside && maxPixradRad(g) > maxRadRad) g *= 2;
-  return g;
-}
-
 /**
  * Exposure (hours) at the RING pixels listed (ascending), by the plan's
  * arithmetic (coverage.ts exposureStage: hit map degraded to FWHM/6,
@@ -440,17 +400,12 @@ function* exposureAtStage(hit: HitMap, beam: BeamProfile, nside: number, list: I
   const h = degradeHitMap(hit, level);
   const { uMax, scale, values } = cachedBeamTable(beam);
   const acc = new Float64Array(list.length);
-  const cen = centroidsOf(h);
+  const cen = centroids(h);
   // Gather: few selected pixels, so each one tests every group of hit pixels
   // (groups about as wide as the beam cutoff) and sums the groups in reach.
   const groupNside = groupNsideFor(h.nside, Math.max(beam.cutoffRad, EXPOSURE_GROUP_MIN_RAD));
-  const { starts, div } = groupStarts(h, groupNside);
+  const { starts, centres: gc } = groupHits(h, groupNside);
   const groups = starts.length - 1;
-  const gc = new Float64Array(3 * groups);
-  for (let g = 0; g < groups; g++) {
-    const c = pix2vecNest(groupNside, Math.floor(h.pix[starts[g]] / div));
-    gc[3 * g] = c[0]; gc[3 * g + 1] = c[1]; gc[3 * g + 2] = c[2];
-  }
   const reach = beam.cutoffRad + maxPixradRad(groupNside);
   const cosReach = reach >= Math.PI ? -2 : Math.cos(reach);
   const scratch = { buf: new Float64Array(0) };
