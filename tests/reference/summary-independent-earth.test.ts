@@ -21,9 +21,9 @@
 //
 // Skipped when /usr/bin/python3 lacks astropy, unless CI=true (then it fails).
 import { describe, expect, it } from 'vitest';
+import { runPlanCli } from '../fixtures/independent/runPlanCli';
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 
 const ROOT = join(import.meta.dirname, '..', '..');
@@ -36,24 +36,9 @@ const mustRun = process.env.CI === 'true';
 
 interface Row { usable: number; sun: number; b: number; l: number }
 
-/** Runs `swathe plan` (bin/swathe.mjs, as `npx swathe` does) and reads summary.json and track.csv. */
 function runCli(scenarioPath: string): { summary: any; rows: Row[] } {
-  const out = mkdtempSync(join(tmpdir(), 'swathe-indep-'));
-  try {
-    execFileSync(process.execPath, [join(ROOT, 'bin', 'swathe.mjs'), 'plan', scenarioPath, '--out', out],
-      { cwd: ROOT, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], timeout: 120_000 });
-    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
-    const lines = readFileSync(join(out, 'track.csv'), 'utf8').trim().split('\n');
-    const head = lines[0].split(',');
-    const ix = (k: string) => head.indexOf(k);
-    const rows = lines.slice(1).map((ln) => {
-      const c = ln.split(',');
-      return { usable: Number(c[ix('usable')]), sun: Number(c[ix('sun_elev_deg')]), b: Number(c[ix('b_deg')]), l: Number(c[ix('l_deg')]) };
-    });
-    return { summary, rows };
-  } finally {
-    rmSync(out, { recursive: true, force: true });
-  }
+  const { summary, rows } = runPlanCli(scenarioPath);
+  return { summary, rows: rows.map((v) => ({ usable: Number(v('usable')), sun: Number(v('sun_elev_deg')), b: Number(v('b_deg')), l: Number(v('l_deg')) })) };
 }
 
 const relErr = (a: number, ref: number) => Math.abs(a - ref) / Math.max(Math.abs(ref), 1e-12);

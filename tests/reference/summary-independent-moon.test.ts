@@ -46,9 +46,7 @@
 //   in-band / near-centre flag differs), where each such sample must lie within
 //   0.06 deg of the band edge or radius in the reference (asserted).
 import { describe, expect, it } from 'vitest';
-import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { runPlanCli } from '../fixtures/independent/runPlanCli';
 import { join } from 'node:path';
 import { coord, moon, moonposition, nutation, planetposition, precess, solar } from 'astronomia';
 import earthData from 'astronomia/data/vsop87Bearth';
@@ -132,26 +130,12 @@ function siteSample(e: Epoch, latDeg: number, lonDeg: number): RefSample {
 interface Row { ms: number; usable: number; sun: number; earth: number; ra: number; dec: number; l: number; b: number }
 
 function runCli(scenarioPath: string): { summary: any; rows: Row[] } {
-  const out = mkdtempSync(join(tmpdir(), 'swathe-indep-'));
-  try {
-    execFileSync(process.execPath, [join(ROOT, 'bin', 'swathe.mjs'), 'plan', scenarioPath, '--out', out],
-      { cwd: ROOT, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], timeout: 120_000 });
-    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
-    const lines = readFileSync(join(out, 'track.csv'), 'utf8').trim().split('\n');
-    const head = lines[0].split(',');
-    const ix = (k: string) => head.indexOf(k);
-    const rows = lines.slice(1).map((ln) => {
-      const c = ln.split(',');
-      return {
-        ms: Date.parse(c[ix('utc')]), usable: Number(c[ix('usable')]), sun: Number(c[ix('sun_elev_deg')]),
-        earth: Number(c[ix('earth_elev_deg')]), ra: Number(c[ix('ra_deg')]), dec: Number(c[ix('dec_deg')]),
-        l: Number(c[ix('l_deg')]), b: Number(c[ix('b_deg')]),
-      };
-    });
-    return { summary, rows };
-  } finally {
-    rmSync(out, { recursive: true, force: true });
-  }
+  const { summary, rows } = runPlanCli(scenarioPath);
+  return { summary, rows: rows.map((v) => ({
+    ms: Date.parse(v('utc')), usable: Number(v('usable')), sun: Number(v('sun_elev_deg')),
+    earth: Number(v('earth_elev_deg')), ra: Number(v('ra_deg')), dec: Number(v('dec_deg')),
+    l: Number(v('l_deg')), b: Number(v('b_deg')),
+  })) };
 }
 
 const relErr = (a: number, ref: number) => Math.abs(a - ref) / Math.max(Math.abs(ref), 1e-12);
