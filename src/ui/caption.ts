@@ -1,5 +1,6 @@
 import type { Scenario } from '../core/types';
 import { fwhmRad } from '../core/beam';
+import { outlineColourName } from './skymap/coverageOutline';
 
 // Text that states what a figure is: used under the exported PNG and in the page.
 
@@ -25,17 +26,26 @@ function elevLimit(v: number | null, what: string): string {
   return v === null ? `${what}: no limit` : `${what} below ${v}°`;
 }
 
-/** One paragraph stating the scenario behind a map at frequency index `freqIndex`. */
-export function scenarioCaption(s: Scenario, freqIndex: number): string {
+function fwhmDegAt(s: Scenario, f: number): number {
+  return (fwhmRad(f, s.telescope.aperture_m, s.telescope.beam) * 180) / Math.PI;
+}
+
+/**
+ * One paragraph stating the scenario behind a map at frequency index `freqIndex`.
+ * With `outlines` (the comparison view) it names every frequency with its outline's colour instead.
+ */
+export function scenarioCaption(s: Scenario, freqIndex: number, opts: { outlines?: boolean } = {}): string {
   const f = s.telescope.frequencies_mhz[freqIndex];
-  const fwhmDeg = f !== undefined ? (fwhmRad(f, s.telescope.aperture_m, s.telescope.beam) * 180) / Math.PI : NaN;
   const beam =
     s.telescope.beam.model === 'airy' ? 'Airy beam' : `Gaussian beam, FWHM = ${s.telescope.beam.fwhm_factor} λ/D`;
   const mask = s.constraints.horizon_mask ? `horizon mask of ${s.constraints.horizon_mask.length} points` : 'flat horizon';
+  const freqText = opts.outlines
+    ? `half-power outlines: ${s.telescope.frequencies_mhz.map((g, i) => `${g} MHz ${outlineColourName(i)} (FWHM ${fwhmDegAt(s, g).toFixed(2)}°)`).join(', ')}`
+    : f !== undefined ? `${f} MHz (FWHM ${fwhmDegAt(s, f).toFixed(2)}°)` : '';
   const parts = [
     `Site: ${bodyLabel(s.site.body)} ${latLabel(s.site.lat_deg)}, ${lonLabel(s.site.lon_deg)}, zenith-pointing drift scan.`,
     `Span: ${s.span.start} to ${s.span.end} (UTC), step ${s.span.step_min === null ? 'automatic' : s.span.step_min + ' min'}.`,
-    `Aperture ${s.telescope.aperture_m} m, ${beam}; ${f !== undefined ? `${f} MHz (FWHM ${fwhmDeg.toFixed(2)}°)` : ''}.`,
+    `Aperture ${s.telescope.aperture_m} m, ${beam}; ${freqText}.`,
     `Usable time: ${elevLimit(s.constraints.sun_max_elev_deg, 'Sun')}; ${
       s.site.body === 'earth' ? 'Earth: n/a' : elevLimit(s.constraints.earth_max_elev_deg, 'Earth')
     }; ${mask}.`,
@@ -43,4 +53,20 @@ export function scenarioCaption(s: Scenario, freqIndex: number): string {
     PLANNING_NOTE,
   ];
   return parts.join(' ');
+}
+
+/** Short identification of a plan: name, site and dates. */
+export function planLabel(s: Scenario): string {
+  return `"${s.name || 'untitled'}", ${bodyLabel(s.site.body)} ${latLabel(s.site.lat_deg)}, ${lonLabel(s.site.lon_deg)}, ${s.span.start.slice(0, 10)} to ${s.span.end.slice(0, 10)}`;
+}
+
+/** What a difference map shows, naming both plans by their letters. */
+export function diffHeadline(a: Scenario, b: Scenario, labelA = 'A', labelB = 'B'): string {
+  return `Exposure of plan ${labelB} minus plan ${labelA}. ${labelA} (pinned): ${planLabel(a)}. ${labelB} (current): ${planLabel(b)}.`;
+}
+
+/** The PNG caption of a difference map: the headline, then each plan's scenario paragraph under its letter. */
+export function diffCaption(a: Scenario, b: Scenario, freqIndex: number, labelA = 'A', labelB = 'B'): string {
+  const strip = (t: string) => t.replace(PLANNING_NOTE, '').trim();
+  return `${diffHeadline(a, b, labelA, labelB)} ${labelA}: ${strip(scenarioCaption(a, freqIndex))} ${labelB}: ${strip(scenarioCaption(b, freqIndex))} ${PLANNING_NOTE}`;
 }

@@ -5,7 +5,7 @@ import { coverageFits } from '../../core/export/fits';
 import { summaryJson } from '../../core/export/summary';
 import { renderSkyMapPng } from '../skymap/exportPng';
 import type { SkyFrame, SkyScale } from '../skymap/SkyMap';
-import { PLANNING_NOTE, scenarioCaption } from '../caption';
+import { diffCaption, scenarioCaption } from '../caption';
 import { noiseCaption } from '../sensitivity/NoiseNote';
 import { downloadBlob, downloadText, fileStem } from './download';
 
@@ -44,12 +44,16 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
       desc: `sky map figure at ${f} MHz with colour bar, legend and caption`,
       run: async () => {
         const widthPx = Math.max(1600, Math.round(2 * mapWidth));
-        const what = view.diff ? `exposure difference B − A at ${f} MHz` : view.compare ? 'half-power outlines of all frequencies' : view.quantity === 'noise' ? `radiometer noise (K) at ${f} MHz` : `exposure at ${f} MHz`;
-        const title = `${result.scenario.name || 'Swathe scenario'} — ${what}`;
+        const what = view.diff
+          ? `exposure difference B − A at ${f} MHz`
+          : view.compare ? `half-power outlines at ${result.scenario.telescope.frequencies_mhz.join(', ')} MHz` : view.quantity === 'noise' ? `radiometer noise (K) at ${f} MHz` : `exposure at ${f} MHz`;
         const base = pngBase ?? result;
+        const title = view.diff
+          ? `${base.scenario.name || 'untitled'} (A) and ${result.scenario.name || 'untitled'} (B) — ${what}`
+          : `${result.scenario.name || 'Swathe scenario'} — ${what}`;
         const caption = view.diff
-          ? `A: ${scenarioCaption(base.scenario, view.freqIndex).replace(PLANNING_NOTE, '').trim()} B: ${scenarioCaption(result.scenario, view.freqIndex)}`
-          : scenarioCaption(result.scenario, view.freqIndex);
+          ? diffCaption(base.scenario, result.scenario, view.freqIndex, view.diff.labelA, view.diff.labelB)
+          : scenarioCaption(result.scenario, view.freqIndex, { outlines: view.compare });
         const fullCaption = view.quantity === 'noise' && !view.diff && !view.compare ? `${noiseCaption(result, view.freqIndex)} ${caption}` : caption;
         const blob = await renderSkyMapPng(base, { ...view, widthPx, title, caption: fullCaption });
         downloadBlob(blob, `${stem}-${view.diff ? 'diff-' : ''}${view.compare ? 'compare' : `${f}mhz${view.quantity === 'noise' && !view.diff ? '-noise' : ''}`}-${view.frame}.png`);

@@ -21,7 +21,8 @@ import {
   type SkyQuantity,
 } from './figure';
 import { LookupCache, screenToJ2000, type SkyFrame } from './skyProjection';
-import { cachedCoveredMasks, coveredMasksAsync } from './coverageOutline';
+import { cachedCoveredMasks, coveredMasksAsync, OUTLINE_COLOURS } from './coverageOutline';
+import { diffHeadline } from '../caption';
 
 export type { SkyFrame } from './skyProjection';
 export type { SkyScale, SkyQuantity } from './figure';
@@ -321,8 +322,9 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
             <div>l {hover.h.l_deg.toFixed(2)}°, b {signed(hover.h.b_deg)}</div>
             {hover.h.exposure_h.map((e, i) => (
               <div key={i} style={{ fontWeight: i === freqIndex ? 700 : 400 }}>
-                {freqs[i]} MHz: {formatHours(e)}
-                {diff && i === freqIndex && diff.other.maps[i] ? ` (other plan ${formatHours(diff.other.maps[i][hover.h.pixel] ?? 0)})` : ''}
+                {freqs[i]} MHz: {diff && i === freqIndex && diff.other.maps[i]
+                  ? `${diff.labelA} ${formatHours(e)}, ${diff.labelB} ${formatHours(diff.other.maps[i][hover.h.pixel] ?? 0)}`
+                  : `${diff ? `${diff.labelA} ` : ''}${formatHours(e)}`}
               </div>
             ))}
             {showsNoise(view) && result.noise_maps?.[freqIndex] && (
@@ -343,6 +345,9 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
           />
         )}
         <div style={{ font: '12px/1.45 system-ui, sans-serif', color: '#222', minWidth: 0, flex: '1 1 260px' }}>
+          {diff && !compare && (
+            <div data-testid="sky-map-diff-caption" style={{ marginBottom: 4 }}>{diffHeadline(result.scenario, diff.other.scenario, diff.labelA, diff.labelB)}</div>
+          )}
           <div style={{ color: '#444', marginBottom: 2 }}>{frameNote(view)}</div>
           <ul data-testid="sky-map-legend" style={{ listStyle: 'none', margin: 0, padding: 0 }}>
             {entries.filter((e) => e.kind !== 'frequency').map((e) => (
@@ -350,9 +355,11 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
             ))}
           </ul>
           <div style={{ marginTop: 4, fontWeight: 600 }}>
-            {compare ? 'Half-power outlines (region within FWHM/2 of the usable track):' : 'Usable hours with the beam on the galactic band (|b| < band + FWHM/2):'}
+            {compare
+              ? `Half-power outlines (region within FWHM/2 of the usable track)${freqs.length > OUTLINE_COLOURS.length ? `; colours repeat after ${OUTLINE_COLOURS.length}` : ''}:`
+              : diff ? `Usable hours with the beam on the galactic band (|b| < band + FWHM/2), plan ${diff.labelA} and plan ${diff.labelB}:` : 'Usable hours with the beam on the galactic band (|b| < band + FWHM/2):'}
           </div>
-          <ul style={{ listStyle: 'none', margin: 0, padding: 0 }}>
+          <ul data-testid="sky-map-freq-legend" style={{ listStyle: 'none', margin: 0, padding: 0 }}>
             {entries.filter((e) => e.kind === 'frequency').map((e, i) => (
               <li key={e.label} style={{ fontWeight: !compare && i === freqIndex ? 700 : 400 }}><LegendSwatch e={e} />{e.short ?? e.label}</li>
             ))}

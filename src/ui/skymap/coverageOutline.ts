@@ -11,11 +11,27 @@ import { coveredMask, coveredStage, hitMap, hitMapStage, hitNsideFor } from '../
 // (instant) and rebuilt here otherwise. The outline is the boundary of that region, found on the
 // screen raster through the same pixel lookup the exposure map uses.
 
-/** Okabe & Ito's colour-blind-safe qualitative palette (yellow last: weakest on the light grey sky). */
-export const OUTLINE_COLOURS = ['#0072B2', '#D55E00', '#009E73', '#CC79A7', '#E69F00', '#56B4E9', '#000000', '#F0E442'];
+/**
+ * Outline colours: Paul Tol's "muted" qualitative scheme (designed to stay
+ * distinct with the common colour-vision deficiencies), without its two light
+ * members that would vanish on the light grey sky or sit near the beam marker.
+ * None is an overlay colour (OVERLAY_STYLE in overlays.ts: white, amber, red,
+ * cyan, pink, greys); tests/unit/ui-skymap-outline-colours.test.ts checks the
+ * distances. Each has a name, so the legend and the PNG caption can say which
+ * outline is which in words.
+ */
+export const OUTLINE_COLOURS = ['#332288', '#44AA99', '#882255', '#999933', '#117733', '#CC6677', '#DDCC77'];
+export const OUTLINE_COLOUR_NAMES = ['indigo', 'teal', 'wine', 'olive', 'green', 'rose', 'sand'];
 
 export function outlineColour(i: number): string {
   return OUTLINE_COLOURS[i % OUTLINE_COLOURS.length];
+}
+
+/** The colour's name; past the last colour the cycle repeats, so the name says which round ("indigo, 2nd"). */
+export function outlineColourName(i: number): string {
+  const round = Math.floor(i / OUTLINE_COLOURS.length);
+  const name = OUTLINE_COLOUR_NAMES[i % OUTLINE_COLOURS.length];
+  return round === 0 ? name : `${name}, ${round + 1}${round + 1 === 2 ? 'nd' : round + 1 === 3 ? 'rd' : 'th'}`;
 }
 
 /**

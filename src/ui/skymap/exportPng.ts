@@ -186,7 +186,9 @@ export async function renderSkyMapPng(result: PlanResult, options: SkyMapPngOpti
   ctx.textAlign = 'left';
   ctx.textBaseline = 'middle';
   ctx.fillText(
-    view.compare ? 'Half-power outlines (within FWHM/2 of the usable track):' : 'Usable hours, beam on the galactic band (|b| < band + FWHM/2):',
+    view.compare
+      ? 'Half-power outlines (within FWHM/2 of the usable track):'
+      : view.diff ? `Usable hours, beam on the galactic band, plans ${view.diff.labelA} and ${view.diff.labelB}:` : 'Usable hours, beam on the galactic band (|b| < band + FWHM/2):',
     margin + colW,
     y + 9 * u,
     colW - 6 * u,

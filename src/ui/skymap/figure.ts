@@ -14,8 +14,8 @@ import {
   type SkySchemeName,
   type ValueScale,
 } from './colour';
-import { cachedCoveredMasks, outlineColour, outlineNside, paintOutlines } from './coverageOutline';
-import { drawCentreMarker, drawGraticuleLabels, drawOverlays, fontPx, haloText, type Ctx2D } from './overlays';
+import { cachedCoveredMasks, outlineColour, outlineColourName, outlineNside, paintOutlines } from './coverageOutline';
+import { drawCentreMarker, drawGraticuleLabels, drawOverlays, fontPx, haloText, OVERLAY_STYLE, type Ctx2D } from './overlays';
 import { frameAxisNames, makeMapGeometry, type LookupCache, type MapGeometry, type SkyFrame } from './skyProjection';
 
 // The parts of a sky-map figure shared by the on-screen map and the PNG export:
@@ -403,29 +403,45 @@ export interface LegendEntry {
 export function legendEntries(result: PlanResult, view: SkyView): LegendEntry[] {
   const m = result.scenario.map;
   const out: LegendEntry[] = [
-    { kind: 'plane', colour: '#ffffff', label: `Galactic plane (b = 0°), band |b| < ${m.galactic_band_deg}° hatched` },
-    { kind: 'centre', colour: '#ff4f4f', label: `Galactic centre (GC), dotted circle of ${m.galactic_center_radius_deg}°`, dashed: true },
-    { kind: 'ecliptic', colour: '#ffb000', label: 'Ecliptic (J2000)', dashed: true },
+    { kind: 'plane', colour: OVERLAY_STYLE.plane, label: `Galactic plane (b = 0°), band |b| < ${m.galactic_band_deg}° hatched` },
+    { kind: 'centre', colour: OVERLAY_STYLE.centre, label: `Galactic centre (GC), dotted circle of ${m.galactic_center_radius_deg}°`, dashed: true },
+    { kind: 'ecliptic', colour: OVERLAY_STYLE.ecliptic, label: 'Ecliptic (J2000)', dashed: true },
   ];
   if (view.beamAt) {
     out.push({
       kind: 'beam',
-      colour: view.beamAt.usable ? '#00e5ff' : '#ff66cc',
+      colour: view.beamAt.usable ? OVERLAY_STYLE.beamUsable : OVERLAY_STYLE.beamUnusable,
       label: `Beam at the chosen time (FWHM circle)${view.beamAt.usable ? '' : ' — not usable then'}`,
       dashed: !view.beamAt.usable,
     });
   }
   const freqs = result.scenario.telescope.frequencies_mhz;
+  // In a difference map `result` is plan A and view.diff.other plan B: every figure carries its plan's letter.
+  const other = !view.compare && view.diff ? view.diff : null;
   freqs.forEach((f, i) => {
     const fs = result.summary.frequencies[i];
     const inBand = fs ? formatHours(fs.usable_hours_beam_in_band) : '—';
     const covered = fs ? `${(fs.sky_fraction_covered * 100).toFixed(1)} % of sky covered` : '';
-    out.push({
-      kind: 'frequency',
-      colour: view.compare ? outlineColour(i) : i === view.freqIndex ? '#1a1a1a' : '#777777',
-      label: `${f} MHz: beam on the galactic band ${inBand}${view.compare && covered ? `, ${covered}` : ''}`,
-      short: `${f} MHz: ${inBand}${view.compare && covered ? ` on the band; ${covered}` : ''}`,
-    });
+    if (view.compare) {
+      const name = outlineColourName(i);
+      out.push({
+        kind: 'frequency',
+        colour: outlineColour(i),
+        label: `${f} MHz (${name} outline): beam on the galactic band ${inBand}${covered ? `, ${covered}` : ''}`,
+        short: `${f} MHz (${name}): ${inBand} on the band${covered ? `; ${covered}` : ''}`,
+      });
+      return;
+    }
+    const colour = i === view.freqIndex ? '#1a1a1a' : '#777777';
+    if (other) {
+      const j = other.other.scenario.telescope.frequencies_mhz.indexOf(f);
+      const fb = j >= 0 ? other.other.summary.frequencies[j] : undefined;
+      const inBandB = fb ? formatHours(fb.usable_hours_beam_in_band) : '—';
+      const pair = `${other.labelA} ${inBand}, ${other.labelB} ${inBandB}`;
+      out.push({ kind: 'frequency', colour, label: `${f} MHz: beam on the galactic band ${pair}`, short: `${f} MHz: ${pair}` });
+      return;
+    }
+    out.push({ kind: 'frequency', colour, label: `${f} MHz: beam on the galactic band ${inBand}`, short: `${f} MHz: ${inBand}` });
   });
   return out;
 }
