@@ -15,7 +15,9 @@ import { ComparePanel } from './compare/ComparePanel';
 import { RunBar } from './RunBar';
 import { ViewControls } from './ViewControls';
 import { IssueIndex, draftToCandidate, scenarioToDraft, type Draft } from './state/draft';
-import { loadStartup, saveScenario, shareLink } from './state/persist';
+import { browserStore, loadStartup, saveScenario, shareLink } from './state/persist';
+import { readRecent, rememberScenario, type RecentEntry } from './state/recent';
+import { RecentMenu } from './recent/RecentMenu';
 import { useEngine } from './state/useEngine';
 import { downloadText, fileStem } from './exports/download';
 import { PLANNING_NOTE, bodyLabel, latLabel, lonLabel } from './caption';
@@ -37,6 +39,11 @@ export function App() {
   const startup = useMemo(() => loadStartup(), []);
   const [draft, setDraft] = useState<Draft>(() => scenarioToDraft(startup.scenario));
   const [notices, setNotices] = useState<string[]>(startup.notice ? [startup.notice] : []);
+  // a whole-scenario replacement (link, import, recent) keeps the one replaced: one click back, and the recent list
+  const [undo, setUndo] = useState<{ text: string; previous: Scenario } | null>(() => startup.replaced
+    ? { text: `Opened the scenario in the link. Your saved scenario "${startup.replaced.name || 'Untitled scenario'}" is kept under Recent.`, previous: startup.replaced }
+    : null);
+  const [recent, setRecent] = useState<RecentEntry[]>(() => readRecent(browserStore()));
   const [auto, setAuto] = useState(true);
   const engine = useEngine();
   const [freqIndex, setFreqIndex] = useState(0);
@@ -73,6 +80,22 @@ export function App() {
     requested.current = scenarioToJson(s);
     engine.run(s);
   }, [engine]);
+
+  // the last valid scenario: what a replacement sets aside when the form holds something invalid
+  const lastGood = useRef<Scenario>(startup.scenario);
+  if (scenario) lastGood.current = scenario;
+  const replaceScenario = (next: Scenario, undoText: string) => {
+    const prev = lastGood.current;
+    if (scenarioToJson(prev) !== scenarioToJson(next)) {
+      const list = rememberScenario(browserStore(), prev);
+      if (list) setRecent(list);
+      else setNotices((p) => [...p, 'The replaced scenario could not be added to Recent (storage full or disabled); use "Go back" or export it.']);
+      setUndo({ text: undoText.replace('%s', prev.name || 'Untitled scenario'), previous: prev });
+    }
+    setDraft(scenarioToDraft(next));
+    setFreqIndex(0);
+    start(next);
+  };
 
   // The startup scenario is computed on open, whatever its size.
   // (Under StrictMode's double effects the second start supersedes the first; the engine drops the stale run.)
@@ -136,9 +159,7 @@ export function App() {
       setNotices((p) => [...p, `${file.name} was not imported; your current scenario is unchanged. ${r.issues.slice(0, 5).map((i) => i.message).join(' ')}`]);
       return;
     }
-    setDraft(scenarioToDraft(r.scenario));
-    setFreqIndex(0);
-    start(r.scenario);
+    replaceScenario(r.scenario, `Imported ${file.name}. The scenario it replaced, "%s", is kept under Recent.`);
   };
 
   return (
@@ -149,6 +170,7 @@ export function App() {
           <span className="tagline">sky coverage of a fixed zenith-pointing telescope</span>
         </div>
         <div className="top-actions">
+          <RecentMenu entries={recent} onOpen={(e) => replaceScenario(e.scenario, 'Opened a recent scenario. The one it replaced, "%s", is kept under Recent.')} />
           <button type="button" onClick={() => importRef.current?.click()}>Import scenario JSON</button>
           <input ref={importRef} type="file" accept=".json,application/json" className="hidden-file" tabIndex={-1}
             aria-label="Scenario JSON file"
@@ -171,8 +193,19 @@ export function App() {
           </button>
         </div>
       </header>
-      {notices.length > 0 && (
+      {(notices.length > 0 || undo) && (
         <div className="notices" role="status" data-testid="notices">
+          {undo && (
+            <p className="notice notice-undo" data-testid="undo-notice">
+              <span>{undo.text}</span>
+              <span className="notice-acts">
+                <button type="button" className="small" onClick={() => { const u = undo; setUndo(null); replaceScenario(u.previous, 'Went back. The scenario you left, "%s", is kept under Recent.'); }}>
+                  Go back to “{undo.previous.name || 'Untitled scenario'}”
+                </button>
+                <button type="button" className="icon" aria-label="Dismiss notice" onClick={() => setUndo(null)}>×</button>
+              </span>
+            </p>
+          )}
           {notices.map((n, i) => (
             <p key={i} className="notice">
               <span>{n}</span>
