@@ -6,6 +6,7 @@ import type { GlobeShading } from './globe/SiteGlobe';
 import type { Draft } from './state/draft';
 import { earthShadingFor } from './state/earthShading';
 import { utcMinute } from './format';
+import { subPointsDeg } from '../core/subpoints';
 
 // The site globe with the Sun and Earth directions at one moment and, for the
 // Moon, the Earth-visibility shading.
@@ -89,13 +90,24 @@ export function GlobePane({ draft, scenario, onPick, atMs, sample, shadingReady 
     return () => { live = false; };
   }, [body, shadingReady, startMs === null ? null : new Date(startMs).getUTCFullYear()]); // eslint-disable-line react-hooks/exhaustive-deps
 
+  // The Moon's sub-Earth point at the moment shown (it wanders about 0, 0 with the libration).
+  const subEarth = useMemo((): [number, number] | null => {
+    if (body !== 'moon' || t === null) return null;
+    try {
+      return subPointsDeg('moon', t).earth;
+    } catch {
+      return null;
+    }
+  }, [body, t]);
+  // The Earth's direction: always on the Moon; on Mars where the Earth constraint is on (it matters there).
+  const showEarth = body === 'moon' || (body === 'mars' && scenario !== null && scenario.site.body === 'mars' && scenario.constraints.earth_max_elev_deg !== null);
   const d = dirs as { sun: V3 | null; earth: V3 | null; sunElev?: number; earthElev?: number | null; err: string | null };
   return (
     <figure className="globe-pane">
       <div className="globe-box">
         <Suspense fallback={<p className="muted">Loading the globe…</p>}>
-          <SiteGlobe body={body} lat_deg={lat} lon_deg={lon} onPick={onPick} sunDir={d.sun} earthDir={body === 'moon' ? d.earth : null}
-            shading={valueLayer ?? (body === 'moon' ? shading : null)} />
+          <SiteGlobe body={body} lat_deg={lat} lon_deg={lon} onPick={onPick} sunDir={d.sun} earthDir={showEarth ? d.earth : null}
+            shading={valueLayer ?? (body === 'moon' ? shading : null)} subEarth={subEarth} />
         </Suspense>
       </div>
       <figcaption>
@@ -103,7 +115,8 @@ export function GlobePane({ draft, scenario, onPick, atMs, sample, shadingReady 
         {t !== null && d.sun && (
           <span>
             {' '}At {utcMinute(t)}: Sun {d.sunElev !== undefined ? `${d.sunElev.toFixed(1)}°` : ''}
-            {d.earth && d.earthElev !== null && d.earthElev !== undefined ? `, Earth ${d.earthElev.toFixed(1)}°` : ''} elevation at the site.
+            {showEarth && d.earth && d.earthElev !== null && d.earthElev !== undefined ? `, Earth ${d.earthElev.toFixed(1)}°` : ''} elevation at the site.
+            {subEarth ? ` Sub-Earth point ${Math.abs(subEarth[0]).toFixed(1)}° ${subEarth[0] < 0 ? 'S' : 'N'}, ${Math.abs(subEarth[1]).toFixed(1)}° ${subEarth[1] < 0 ? 'W' : 'E'}.` : ''}
           </span>
         )}
         {d.err && <span className="error"> Sun/Earth directions unavailable: {d.err}</span>}

@@ -15,6 +15,7 @@ import { readSubpoints } from '../fixtures/ephemeris/parse';
 import { aeTime, bodyToJ2000, bodyVectorsAU, siteGeometry } from '../../src/core/bodies';
 import { mulMatTVec, vecToLonLatDeg, raDecDegToVec, angleRad, type Vec3 } from '../../src/core/frames';
 import { computeTrack } from '../../src/core/ephemeris';
+import { subPointsDeg } from '../../src/core/subpoints';
 import { DEMO_SCENARIO } from '../../src/core/demo';
 import type { Scenario } from '../../src/core/types';
 
@@ -42,6 +43,18 @@ describe('Moon orientation and Sun/Earth directions vs NASA SVS 2021 (0.01 deg a
       ];
       worst = Math.max(worst, ...d);
       if (Math.max(...d) > 0.01) throw new Error(`at ${new Date(r.t_ms).toISOString()}: ${d.map((x) => x.toFixed(4))}`);
+    }
+    expect(worst).toBeLessThan(0.01);
+  });
+
+  it('the sub-Earth point the Moon globe marks (core/subpoints.ts), every tabulated time', () => {
+    let worst = 0;
+    for (const r of rows) {
+      const p = subPointsDeg('moon', r.t_ms);
+      const d = Math.max(Math.abs(wrap(p.earth![1] - r.elon)) * Math.cos(r.elat * DEG), Math.abs(p.earth![0] - r.elat));
+      expect(p.earth![1]).toBeGreaterThanOrEqual(-180);
+      expect(p.earth![1]).toBeLessThan(180);
+      worst = Math.max(worst, d);
     }
     expect(worst).toBeLessThan(0.01);
   });

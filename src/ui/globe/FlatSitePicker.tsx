@@ -1,6 +1,7 @@
 import { useEffect, useRef, type JSX } from 'react';
 import type { BodyName } from '../../core/types';
 import { BODY_COLOURS, BODY_ARTICLED, cssRgb, roundPick, shadingSurfaceColour, type ShadingGrid } from './globeMath';
+import { earthCoastlines, moonNearFarBoundary, splitAtAntimeridian, type LatLonLine } from './surfaceFeatures';
 
 // The fallback when WebGL is off: the body as a flat latitude/longitude map
 // (east to the right), with the same grid, shading and site marker; a click picks.
@@ -15,8 +16,10 @@ export function FlatSitePicker(props: {
   /** Body-fixed unit vectors; drawn at the points where that body is overhead. */
   sunDir?: [number, number, number] | null;
   earthDir?: [number, number, number] | null;
+  /** The Moon's sub-Earth point [lat, lon] at the moment shown. */
+  subEarth?: [number, number] | null;
 }): JSX.Element {
-  const { body, lat_deg, lon_deg, onPick, shading, width, sunDir, earthDir } = props;
+  const { body, lat_deg, lon_deg, onPick, shading, width, sunDir, earthDir, subEarth } = props;
   const ref = useRef<HTMLCanvasElement | null>(null);
   const w = Math.max(200, Math.floor(width));
   const h = Math.round(w / 2);
@@ -65,6 +68,35 @@ export function FlatSitePicker(props: {
       ctx.beginPath(); ctx.moveTo(0, y); ctx.lineTo(w, y); ctx.stroke();
       label(`${Math.abs(lat)}°${lat < 0 ? 'S' : lat > 0 ? 'N' : ''}`, 2, y - 2);
     }
+    const lines = (ls: LatLonLine[], colour: string, lw: number) => {
+      ctx.save();
+      ctx.strokeStyle = colour;
+      ctx.lineWidth = lw;
+      ctx.beginPath();
+      for (const l of ls) for (const part of splitAtAntimeridian(l)) {
+        part.forEach(([la, lo], i) => {
+          const x = ((lo + 180) / 360) * w, y = ((90 - la) / 180) * h;
+          if (i === 0) ctx.moveTo(x, y); else ctx.lineTo(x, y);
+        });
+      }
+      ctx.stroke();
+      ctx.restore();
+    };
+    if (body === 'earth') lines(earthCoastlines(), 'rgba(40, 30, 10, 0.85)', 1);
+    if (body === 'moon') {
+      lines(moonNearFarBoundary(), '#1f9e5a', 2);
+      label('far side', 4, h / 2 - 6);
+      label('near side', w / 2 + 4, h / 2 - 6);
+      if (subEarth && subEarth.every(Number.isFinite)) {
+        const x = ((subEarth[1] + 180) / 360) * w, y = ((90 - subEarth[0]) / 180) * h;
+        ctx.beginPath();
+        ctx.arc(x, y, 5, 0, 2 * Math.PI);
+        ctx.strokeStyle = '#3d8bff';
+        ctx.lineWidth = 2.5;
+        ctx.stroke();
+        label('sub-Earth point', x + 7, y + 14);
+      }
+    }
     const sub = (d: [number, number, number] | null | undefined, colour: string, name: string) => {
       if (!d || !d.every(Number.isFinite)) return;
       const la = (Math.atan2(d[2], Math.hypot(d[0], d[1])) * 180) / Math.PI;
@@ -80,7 +112,8 @@ export function FlatSitePicker(props: {
       label(`${name} overhead`, x + 6, y + 4);
     };
     sub(sunDir, '#ffb000', 'Sun');
-    if (body === 'moon') sub(earthDir, '#3d8bff', 'Earth');
+    // On the Moon the sub-Earth point (above) already marks where the Earth is overhead.
+    if (body === 'mars' || (body === 'moon' && !subEarth)) sub(earthDir, '#3d8bff', 'Earth');
     if (Number.isFinite(lat_deg) && Number.isFinite(lon_deg)) {
       const x = ((((lon_deg + 180) % 360) + 360) % 360 / 360) * w;
       const y = ((90 - lat_deg) / 180) * h;
@@ -93,7 +126,7 @@ export function FlatSitePicker(props: {
       ctx.stroke();
     }
     c.dataset.ready = '1';
-  }, [body, lat_deg, lon_deg, shading, w, h, sunDir, earthDir]);
+  }, [body, lat_deg, lon_deg, shading, w, h, sunDir, earthDir, subEarth?.[0], subEarth?.[1]]); // eslint-disable-line react-hooks/exhaustive-deps
 
   return (
     <canvas

@@ -19,6 +19,7 @@ import {
   type V3,
 } from './globeMath';
 import { FlatSitePicker } from './FlatSitePicker';
+import { earthCoastlines, moonNearFarBoundary, type LatLonLine } from './surfaceFeatures';
 
 export interface GlobeShading {
   nLat: number;
@@ -50,6 +51,8 @@ export interface SiteGlobeProps {
   sunDir?: [number, number, number] | null;
   earthDir?: [number, number, number] | null;
   shading?: GlobeShading | null;
+  /** The Moon's sub-Earth point [lat, lon] at the moment shown (marked beside the near/far-side boundary). */
+  subEarth?: [number, number] | null;
 }
 
 const CLICK_SLOP_PX = 4;
@@ -57,6 +60,11 @@ const CAMERA_DISTANCE = 5.9;
 const SUN_COLOUR = 0xffb000;
 const EARTH_ARROW_COLOUR = 0x3d8bff;
 const SITE_COLOUR = 0xe8112d;
+/** Coastlines: a pale sand on the Earth's blue. */
+const COAST_COLOUR = 0xf3e3b3;
+/** The Moon's near/far-side boundary: a green no other globe mark uses. */
+const NEARFAR_COLOUR = 0x2fd27a;
+const NEARFAR_CSS = '#5fe39b';
 
 function webglAvailable(): boolean {
   try {
@@ -136,6 +144,53 @@ function gridLines(): THREE.Group {
     // Shown only while facing the viewer (see faceLabels), so no label sits on the limb or shows through.
     s.userData.gridLabel = true;
     g.add(s);
+  }
+  return g;
+}
+
+/** Lines of [lat, lon] points as line segments just above the surface. */
+function latLonLines(lines: LatLonLine[], colour: number, r: number, opacity = 1): THREE.LineSegments {
+  const pts: number[] = [];
+  for (const l of lines) for (let i = 1; i < l.length; i++) pts.push(...latLonToScene(l[i - 1][0], l[i - 1][1], r), ...latLonToScene(l[i][0], l[i][1], r));
+  const geo = new THREE.BufferGeometry();
+  geo.setAttribute('position', new THREE.Float32BufferAttribute(pts, 3));
+  return new THREE.LineSegments(geo, new THREE.LineBasicMaterial({ color: colour, transparent: opacity < 1, opacity }));
+}
+
+function faceLabel(text: string, colour: string, lat: number, lon: number, scale = 0.12): THREE.Sprite {
+  const s = labelSprite(text, colour, scale);
+  s.position.copy(v3(latLonToScene(lat, lon, 1.04)));
+  s.material.depthTest = false;
+  s.userData.gridLabel = true;
+  return s;
+}
+
+/** What belongs to the body's surface: the Earth's coastlines; the Moon's near/far-side boundary and sub-Earth point. */
+function surfaceFeatures(body: BodyName, subEarth: [number, number] | null): THREE.Group {
+  const g = new THREE.Group();
+  g.name = 'surface-features';
+  if (body === 'earth') {
+    const coast = latLonLines(earthCoastlines(), COAST_COLOUR, 1.002);
+    coast.name = 'coastlines';
+    g.add(coast);
+  }
+  if (body === 'moon') {
+    const b = latLonLines(moonNearFarBoundary(), NEARFAR_COLOUR, 1.004);
+    b.name = 'near-far-boundary';
+    g.add(b);
+    g.add(faceLabel('near side', NEARFAR_CSS, 15, 0));
+    g.add(faceLabel('far side', NEARFAR_CSS, 15, 180));
+    g.add(faceLabel('boundary', NEARFAR_CSS, -15, 90, 0.1));
+    g.add(faceLabel('boundary', NEARFAR_CSS, -15, -90, 0.1));
+    if (subEarth && subEarth.every(Number.isFinite)) {
+      const p = v3(latLonToScene(subEarth[0], subEarth[1], 1.0));
+      const ring = new THREE.Mesh(new THREE.RingGeometry(0.035, 0.052, 32), new THREE.MeshBasicMaterial({ color: EARTH_ARROW_COLOUR, side: THREE.DoubleSide }));
+      ring.position.copy(p.clone().multiplyScalar(1.003));
+      ring.lookAt(p.clone().multiplyScalar(2));
+      ring.name = 'sub-earth';
+      g.add(ring);
+      g.add(faceLabel('sub-Earth point', '#7fb2ff', subEarth[0] - 7, subEarth[1], 0.1));
+    }
   }
   return g;
 }
@@ -226,6 +281,7 @@ interface Scene3 {
   surface: THREE.Mesh<THREE.SphereGeometry, THREE.MeshLambertMaterial>;
   site: THREE.Group;
   arrows: THREE.Group;
+  features: THREE.Group;
   render: () => void;
   dispose: () => void;
 }
@@ -264,6 +320,8 @@ function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
 
   const arrows = new THREE.Group();
   scene.add(arrows);
+  const features = new THREE.Group();
+  scene.add(features);
 
   const controls = new OrbitControls(camera, canvas);
   controls.enablePan = false;
@@ -304,7 +362,7 @@ function buildScene(canvas: HTMLCanvasElement, onRendered: () => void): Scene3 {
     });
     renderer.dispose();
   };
-  return { renderer, scene, camera, controls, surface, site, arrows, render, dispose };
+  return { renderer, scene, camera, controls, surface, site, arrows, features, render, dispose };
 }
 
 function updateAvoid(s: Scene3): void {
@@ -375,7 +433,9 @@ function ValueLegend({ shading }: { shading: GlobeShading }): JSX.Element {
   );
 }
 
-function ArrowLegend({ body, sun, earth }: { body: BodyName; sun: boolean; earth: boolean }): JSX.Element {
+function ArrowLegend({ body, sun, earth, coast, moonMarks, subEarth }: {
+  body: BodyName; sun: boolean; earth: boolean; coast: boolean; moonMarks: boolean; subEarth: boolean;
+}): JSX.Element {
   const item = (colour: string, text: string) => (
     <span style={{ whiteSpace: 'nowrap' }}>
       <span aria-hidden="true" style={{ display: 'inline-block', width: 16, height: 3, background: colour, verticalAlign: 'middle', marginRight: 4 }} />
@@ -387,12 +447,20 @@ function ArrowLegend({ body, sun, earth }: { body: BodyName; sun: boolean; earth
       {item('#e8112d', `Site on ${BODY_ARTICLED[body]} (arrow: zenith)`)}
       {sun && item('#ffb000', 'Direction of the Sun')}
       {earth && item('#3d8bff', 'Direction of the Earth')}
+      {coast && item('#c9b06b', 'Coastlines')}
+      {moonMarks && item(NEARFAR_CSS, 'Near/far-side boundary (90° E and W)')}
+      {subEarth && (
+        <span style={{ whiteSpace: 'nowrap' }}>
+          <span aria-hidden="true" style={{ display: 'inline-block', width: 9, height: 9, borderRadius: 6, border: '2.5px solid #3d8bff', verticalAlign: 'middle', marginRight: 4 }} />
+          Sub-Earth point
+        </span>
+      )}
     </div>
   );
 }
 
 export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
-  const { body, lat_deg, lon_deg, onPick, sunDir, earthDir, shading } = props;
+  const { body, lat_deg, lon_deg, onPick, sunDir, earthDir, shading, subEarth } = props;
   const boxRef = useRef<HTMLDivElement | null>(null);
   const canvasRef = useRef<HTMLCanvasElement | null>(null);
   const s3 = useRef<Scene3 | null>(null);
@@ -507,6 +575,29 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
     s.render();
   }, [body, usedShading, glError]);
 
+  // Coastlines (Earth), near/far-side boundary and sub-Earth point (Moon).
+  const subKey = subEarth && subEarth.every(Number.isFinite) ? `${subEarth[0].toFixed(3)},${subEarth[1].toFixed(3)}` : '';
+  useEffect(() => {
+    const s = s3.current;
+    if (!s) return;
+    for (const c of [...s.features.children]) {
+      s.features.remove(c);
+      c.traverse((o) => {
+        const m = o as THREE.Mesh;
+        m.geometry?.dispose();
+        const mat = (m as { material?: THREE.Material }).material;
+        (mat as THREE.SpriteMaterial | undefined)?.map?.dispose();
+        mat?.dispose();
+      });
+    }
+    const f = surfaceFeatures(body, body === 'moon' ? subEarth ?? null : null);
+    s.features.add(f);
+    const canvas = canvasRef.current;
+    if (canvas) canvas.dataset.features = f.children.map((c) => c.name).filter(Boolean).join(' ');
+    s.render();
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [body, subKey, glError]);
+
   // Re-aim the camera when the body changes.
   useEffect(() => {
     const s = s3.current;
@@ -546,10 +637,10 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
       });
     }
     const ok = (d: unknown): d is V3 => Array.isArray(d) && d.length === 3 && d.every(Number.isFinite) && Math.hypot(...(d as V3)) > 0;
-    s.scene.userData.arrowDirs = [sunDir, body === 'moon' ? earthDir : null].filter(ok).map((d) => v3(bodyFixedToScene(d)).normalize());
+    s.scene.userData.arrowDirs = [sunDir, body !== 'earth' ? earthDir : null].filter(ok).map((d) => v3(bodyFixedToScene(d)).normalize());
     updateAvoid(s);
     if (ok(sunDir)) s.arrows.add(directionArrow(bodyFixedToScene(sunDir), SUN_COLOUR, 'Sun', '#ffc640'));
-    if (body === 'moon' && ok(earthDir)) s.arrows.add(directionArrow(bodyFixedToScene(earthDir), EARTH_ARROW_COLOUR, 'Earth', '#7fb2ff'));
+    if (body !== 'earth' && ok(earthDir)) s.arrows.add(directionArrow(bodyFixedToScene(earthDir), EARTH_ARROW_COLOUR, 'Earth', '#7fb2ff'));
     s.render();
   }, [sunDir, earthDir, body, glError]);
 
@@ -561,7 +652,7 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
           <p role="status" style={{ margin: '0 0 4px', font: '13px system-ui, sans-serif' }}>
             3D globe unavailable: {glError}. Showing a flat latitude/longitude map instead; click it to pick the site.
           </p>
-          <FlatSitePicker body={body} lat_deg={lat_deg} lon_deg={lon_deg} onPick={onPick} shading={usedShading} width={size || 320} sunDir={sunDir} earthDir={earthDir} />
+          <FlatSitePicker body={body} lat_deg={lat_deg} lon_deg={lon_deg} onPick={onPick} shading={usedShading} width={size || 320} sunDir={sunDir} earthDir={earthDir} subEarth={subEarth} />
         </div>
       ) : (
         <canvas
@@ -573,7 +664,7 @@ export function SiteGlobe(props: SiteGlobeProps): JSX.Element {
         />
       )}
       {shadeIssue && <p role="status" style={{ font: '12px system-ui, sans-serif', color: '#a00' }}>Shading not shown: {shadeIssue}</p>}
-      <ArrowLegend body={body} sun={!!sunDir} earth={body === 'moon' && !!earthDir} />
+      <ArrowLegend body={body} sun={!!sunDir} earth={body !== 'earth' && !!earthDir} coast={body === 'earth'} moonMarks={body === 'moon'} subEarth={body === 'moon' && !!subEarth} />
       {usedShading && (isValueLayer(usedShading) ? <ValueLegend shading={usedShading} /> : <ShadingLegend shading={usedShading} />)}
     </div>
   );

@@ -119,6 +119,17 @@ export function nearestCell(s: ShadingGrid, latDeg: number, lonDeg: number): num
   return bi * nLon + bj;
 }
 
+/**
+ * Centre of the grid cell holding (lat, lon), for moving the site onto a survey cell: the survey's
+ * value belongs to the centre, not to the point clicked. Rounded to 1e-6 deg (0.1 m on the Earth) so
+ * the form shows a short number; the cell stays the same.
+ */
+export function cellCentre(s: ShadingGrid, latDeg: number, lonDeg: number): [number, number] {
+  const k = nearestCell(s, latDeg, lonDeg);
+  const r = (v: number) => Math.round(v * 1e6) / 1e6 + 0; // + 0 turns -0 into 0
+  return [r(s.lat_deg[Math.floor(k / s.nLon)]), r(wrapLon(s.lon_deg[k % s.nLon]))];
+}
+
 /** Grey for cells of a value layer without a value (not computed, e.g. another shard). */
 export const NO_VALUE_RGB: [number, number, number] = [0.42, 0.42, 0.42];
 

@@ -3,7 +3,7 @@ import type { Scenario } from '../../core/types';
 import type { SurveyFigure, SurveyLayer } from '../../core/surveyLayer';
 import { surveyCsv } from '../../core/surveyCsv';
 import { FlatSitePicker } from '../globe/FlatSitePicker';
-import { cssRgb, nearestCell, NO_VALUE_RGB, valueColour } from '../globe/globeMath';
+import { cellCentre, cssRgb, nearestCell, NO_VALUE_RGB, valueColour } from '../globe/globeMath';
 import { downloadText, fileStem } from '../exports/download';
 import { PLANNING_NOTE, bodyLabel } from '../caption';
 import { useWidth } from '../useWidth';
@@ -179,7 +179,7 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
           <div className="survey-map-wrap">
             <div className="survey-map" data-testid="survey-flat-map" style={{ width: mapW }}
               onPointerMove={pointerCell} onPointerLeave={() => setHoverCell(null)}>
-              <FlatSitePicker body={done.scenario.site.body} lat_deg={siteLat} lon_deg={siteLon} onPick={onPick} shading={layer} width={mapW} />
+              <FlatSitePicker body={done.scenario.site.body} lat_deg={siteLat} lon_deg={siteLon} onPick={(la, lo) => onPick(...cellCentre(layer, la, lo))} shading={layer} width={mapW} />
             </div>
           </div>
           <div className="survey-below">
@@ -188,7 +188,7 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
               {hoverValue !== null ? (
                 <div data-testid="survey-hover">
                   Pointer: {latText(cellLatLon(layer, hoverValue)[0])}, {lonText(cellLatLon(layer, hoverValue)[1])} —{' '}
-                  <strong>{layerValueText(layer, layer.values[hoverValue])}</strong> (click to move the site there)
+                  <strong>{layerValueText(layer, layer.values[hoverValue])}</strong> (click to move the site to this cell's centre)
                 </div>
               ) : (
                 <div className="muted">Point at the map to read a site's value; click to move the site.</div>
