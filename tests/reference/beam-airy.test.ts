@@ -1,5 +1,5 @@
 import { execFileSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { PY, requirePython } from './pythonRef';
 import { describe, expect, it } from 'vitest';
 import { AIRY_FWHM_FACTOR, airyCutoffX, airyPower, besselJ1, makeBeam } from '../../src/core/beam';
 
@@ -37,15 +37,8 @@ describe('Bessel J1', () => {
     expect(besselJ1(-2)).toBeCloseTo(-besselJ1(2), 15);
   });
 
-  const py = '/usr/bin/python3';
-  const hasScipy = existsSync(py) && (() => {
-    try {
-      execFileSync(py, ['-c', 'import scipy.special'], { stdio: 'ignore' });
-      return true;
-    } catch {
-      return false;
-    }
-  })();
+  const py = PY;
+  const hasScipy = requirePython(['scipy.special', 'numpy'], 'the Bessel J1 check against scipy');
   it.skipIf(!hasScipy)('matches scipy.special.j1 to 1e-8 on 0..60 and scipy Airy power', () => {
     const out = execFileSync(py, ['-c', [
       'import json, numpy as np, scipy.special as s',

@@ -1,7 +1,7 @@
 // Exposure and covered sky against an independent computation with healpy
 // (HEALPix reference implementation, Górski et al. 2005; Debian python3-healpy)
-// run through /usr/bin/python3 on the same usable path. Skipped when healpy is
-// missing, except under CI=true where it must run.
+// run through /usr/bin/python3 on the same usable path. Skipped when healpy (or
+// scipy, for the Airy case) is missing, except under CI=true where the file fails.
 import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
@@ -11,10 +11,9 @@ import { makeBeam } from '../../src/core/beam';
 import { runPlan } from '../../src/engine/runPlan';
 import type { Scenario } from '../../src/core/types';
 
-const PY = '/usr/bin/python3';
+import { PY, requirePython } from './pythonRef';
 const script = fileURLToPath(new URL('./coverage-healpy.py', import.meta.url));
-const hasHealpy = spawnSync(PY, ['-c', 'import healpy'], { encoding: 'utf8' }).status === 0;
-if (process.env.CI === 'true' && !hasHealpy) throw new Error('CI=true but /usr/bin/python3 cannot import healpy (install python3-healpy)');
+const hasHealpy = requirePython(['healpy', 'numpy'], 'the exposure check against healpy');
 
 describe.skipIf(!hasHealpy)('coverage vs healpy', () => {
   // Path: a zenith drifting 2 deg/h along dec +25 with a 2-deg wobble over
@@ -57,7 +56,7 @@ describe.skipIf(!hasHealpy)('coverage vs healpy', () => {
   }
 });
 
-const hasScipy = hasHealpy && spawnSync(PY, ['-c', 'import scipy.special'], { encoding: 'utf8' }).status === 0;
+const hasScipy = hasHealpy && requirePython(['scipy.special'], 'the Airy exposure check against healpy and scipy');
 
 describe.skipIf(!hasHealpy)('a whole plan vs healpy', () => {
   // An invented lunar site over 25 days (about one lunar day and night), the

@@ -8,7 +8,7 @@ import earthData from 'astronomia/data/vsop87Bearth';
 import * as AE from 'astronomy-engine';
 import { aeTime, bodyToJ2000, bodyVectorsAU } from '../../src/core/bodies';
 import { mulMatTVec, vecToLonLatDeg } from '../../src/core/frames';
-import { computeTrack } from '../../src/core/ephemeris';
+import { computeTrack, siteStateAt } from '../../src/core/ephemeris';
 import { DEMO_SCENARIO } from '../../src/core/demo';
 import type { Scenario } from '../../src/core/types';
 
@@ -30,21 +30,27 @@ function ourLibration(ttMs: number): { l: number; b: number; l0: number; b0: num
 }
 
 describe('Greenwich sidereal time (Meeus ch. 12)', () => {
-  it('Example 12.a: 1987 April 10, 0h UT, mean 13h10m46.3668s, apparent 13h10m46.1351s', () => {
+  it('Example 12.a: 1987 April 10, 0h UT, apparent sidereal time 13h10m46.1351s = the true-of-date RA of our zenith at longitude 0', () => {
     const jd = julian.CalendarGregorianToJD(1987, 4, 10);
     expect(jd).toBe(2446895.5);
-    // the printed values, through astronomia (seconds of time)
+    // astronomia reproduces the printed values (Examples 12.a and 12.b), so it is fit to convert below
     expect(Math.abs(sidereal.mean(jd) - (13 * 3600 + 10 * 60 + 46.3668))).toBeLessThan(0.001);
     expect(Math.abs(sidereal.apparent(jd) - (13 * 3600 + 10 * 60 + 46.1351))).toBeLessThan(0.001);
-    // the model our Earth rotation uses (astronomy-engine, IAU 2006 + 2000B nutation):
-    // within 0.02 s of Meeus' IAU 1982 + 1980 value
-    const gast = AE.SiderealTime(new Date(Date.UTC(1987, 3, 10))) * 3600;
-    expect(Math.abs(gast - (13 * 3600 + 10 * 60 + 46.1351))).toBeLessThan(0.02);
-  });
-
-  it('Example 12.b: 1987 April 10, 19h21m00s UT, mean sidereal time 8h34m57.0896s', () => {
-    const jd = julian.CalendarGregorianToJD(1987, 4, 10 + (19 + 21 / 60) / 24);
-    expect(Math.abs(sidereal.mean(jd) - (8 * 3600 + 34 * 60 + 57.0896))).toBeLessThan(0.001);
+    const jdB = julian.CalendarGregorianToJD(1987, 4, 10 + (19 + 21 / 60) / 24);
+    expect(Math.abs(sidereal.mean(jdB) - (8 * 3600 + 34 * 60 + 57.0896))).toBeLessThan(0.001);
+    // our zenith (J2000) at lat 0, lon 0 brought to the true equator and equinox of date
+    // (Meeus ch. 21 and 23 through astronomia): its RA is the printed apparent sidereal time.
+    // 0.0003 deg = 0.07 s of time: IAU 2006/2000B (ours) against IAU 1976/1980 (Meeus)
+    for (const [lon, addH] of [[0, 0], [-75.3, 19 + 21 / 60]] as const) {
+      const ms = Date.UTC(1987, 3, 10) + addH * 3_600_000;
+      const s: Scenario = { ...DEMO_SCENARIO, site: { body: 'earth', lat_deg: 0, lon_deg: lon } };
+      const st = siteStateAt(s, ms);
+      const jdi = jdOfMs(ms);
+      const eq = precess.position(new coord.Equatorial(st.ra_deg * DEG, st.dec_deg * DEG), 2000, 2000 + (jdi - 2451545.0) / 365.25, 0, 0);
+      const [dra] = apparent.nutation(eq.ra, eq.dec, jdi);
+      const printed = addH === 0 ? (13 * 3600 + 10 * 60 + 46.1351) / 240 : sidereal.apparent(jdi) / 240;
+      expect(Math.abs(wrap((eq.ra + dra) / DEG - (printed + lon)))).toBeLessThan(0.0003);
+    }
   });
 
   it('the zenith of an Earth site has true-of-date RA = local apparent sidereal time and Dec = geodetic latitude (astronomia)', () => {

@@ -153,7 +153,11 @@ describe('runPlan progress and cancellation', () => {
     const s = scenario({ days: 200, step: 10 });
     const clean = await runPlan(s);
     const ac = new AbortController();
-    await runPlan(s, { signal: ac.signal, onProgress: (st) => { if (st === 'exposure') ac.abort(); } }).catch(() => undefined);
+    let aborted = false;
+    const cut = runPlan(s, { signal: ac.signal, onProgress: (st) => { if (st === 'exposure' && !aborted) { aborted = true; ac.abort(); } } });
+    // the run really was cut short in the exposure stage, and says so
+    await expect(cut).rejects.toMatchObject({ name: 'CancelledError' });
+    expect(aborted).toBe(true);
     const again = await runPlan(s);
     expect(again.summary).toEqual(clean.summary);
     expect(Array.from(again.maps[1])).toEqual(Array.from(clean.maps[1]));

@@ -1,4 +1,5 @@
 import fc from 'fast-check';
+import { assertBoth } from '../fixtures/scenarios/fuzzKit'; // fixed seed + a fresh one, printed on failure
 import { describe, expect, it } from 'vitest';
 import {
   maxPixradRad, nest2ring, nside2npix, pix2vecNest, pix2vecRing, pix2vecRingInto, queryDiscRing,
@@ -35,7 +36,7 @@ describe.each(ORDERS)('round trips at nside 2^%i', (order) => {
   const pixArb = fc.integer({ min: 0, max: npix - 1 });
 
   it('RING pix -> vec -> pix and NESTED pix -> vec -> pix', () => {
-    fc.assert(
+    assertBoth(
       fc.property(pixArb, (p) => {
         const v = pix2vecRing(nside, p);
         expect(vec2pixRing(nside, v[0], v[1], v[2])).toBe(p);
@@ -47,7 +48,7 @@ describe.each(ORDERS)('round trips at nside 2^%i', (order) => {
   });
 
   it('ring -> nest -> ring and nest -> ring -> nest, same centre', () => {
-    fc.assert(
+    assertBoth(
       fc.property(pixArb, (p) => {
         const q = ring2nest(nside, p);
         expect(q).toBeGreaterThanOrEqual(0);
@@ -62,7 +63,7 @@ describe.each(ORDERS)('round trips at nside 2^%i', (order) => {
 
   it('vec -> pix: the pixel centre lies within max_pixrad; both schemes agree', () => {
     const rmax = maxPixradRad(nside) * (1 + 1e-9);
-    fc.assert(
+    assertBoth(
       fc.property(fc.oneof(unitVec, nearPoleVec), (v) => {
         const p = vec2pixRing(nside, v[0], v[1], v[2]);
         expect(angle(pix2vecRing(nside, p), v)).toBeLessThanOrEqual(rmax);
@@ -103,7 +104,7 @@ function pointAt(c: number[], e1: number[], e2: number[], rho: number, psi: numb
 describe('query_disc properties', () => {
   it('exact: every returned centre is inside; the pixels just beyond each run on a ring are outside', () => {
     const v = new Float64Array(3);
-    fc.assert(
+    assertBoth(
       fc.property(discArb, ({ nside, c, r }) => {
         const ranges = queryDiscRingRanges(nside, c[0], c[1], c[2], r);
         const npix = nside2npix(nside);
@@ -132,7 +133,7 @@ describe('query_disc properties', () => {
 
   it('inclusive: a superset of exact, contains every pixel the disc touches (fine sampling), nothing farther than r + max_pixrad', () => {
     const v = new Float64Array(3);
-    fc.assert(
+    assertBoth(
       fc.property(discArb, fc.integer({ min: 1, max: 2 ** 30 }), ({ nside, c, r }, seed) => {
         const inc = queryDiscRing(nside, c[0], c[1], c[2], r, true);
         const set = new Set(inc);

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import { assertBoth } from '../fixtures/scenarios/fuzzKit'; // fixed seed + a fresh one, printed on failure
 import {
   bodyFixedToScene,
   latLonToScene,
@@ -21,7 +22,7 @@ import { interpolateCividis } from 'd3-scale-chromatic';
 
 describe('site globe geometry', () => {
   it('round-trips latitude and east-positive longitude through scene coordinates', () => {
-    fc.assert(
+    assertBoth(
       fc.property(fc.double({ min: -89.9, max: 89.9, noNaN: true }), fc.double({ min: -180, max: 179.999, noNaN: true }), (lat, lon) => {
         const [la, lo] = sceneToLatLon(latLonToScene(lat, lon, 1.7));
         expect(la).toBeCloseTo(lat, 9);
