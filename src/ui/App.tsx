@@ -31,6 +31,9 @@ import { NoiseNote } from './sensitivity/NoiseNote';
 // The planner shell: scenario draft -> validated scenario -> worker run ->
 // result views. The last good result stays on screen whatever the draft holds.
 
+type PhoneTab = 'scenario' | 'map' | 'results';
+const PHONE_TABS: [PhoneTab, string][] = [['scenario', 'Scenario'], ['map', 'Map & globe'], ['results', 'Results']];
+
 /** Runs estimated to take longer than this wait for the Compute button. */
 export const AUTO_RUN_MAX_S = 8;
 const DEBOUNCE_MS = 350;
@@ -57,6 +60,8 @@ export function App() {
   const [scrubIndex, setScrubIndex] = useState(0);
   const [pinned, setPinned] = useState<PlanResult | null>(null);
   const [showDiff, setShowDiff] = useState(false);
+  // At phone width (CSS, <= 480 px) one section shows at a time, chosen by tabs; wider screens show all.
+  const [phoneTab, setPhoneTab] = useState<PhoneTab>('map');
 
   const parsed = useMemo(() => parseScenario(draftToCandidate(draft)), [draft]);
   const scenario: Scenario | null = parsed.ok ? parsed.scenario : null;
@@ -214,7 +219,15 @@ export function App() {
           ))}
         </div>
       )}
-      <div className="layout">
+      <nav className="phone-tabs" role="tablist" aria-label="Sections of the page">
+        {PHONE_TABS.map(([id, label]) => (
+          <button key={id} type="button" role="tab" id={`tab-${id}`} aria-selected={phoneTab === id}
+            className={phoneTab === id ? 'on' : undefined} onClick={() => { setPhoneTab(id); window.scrollTo({ top: 0 }); }}>
+            {label}{id === 'scenario' && issues.size > 0 ? ` (${issues.size} ⚠)` : ''}
+          </button>
+        ))}
+      </nav>
+      <div className="layout" data-phone-tab={phoneTab}>
         <aside className="side" aria-labelledby="scenario-head">
           <h2 id="scenario-head">Scenario</h2>
           <p className="intro">
@@ -227,6 +240,7 @@ export function App() {
           <RunBar
             engine={engine}
             estimateText={estimate && runnable ? describeEstimate(estimate) : null}
+            estimateSeconds={estimate && runnable ? estimate.seconds_estimate : null}
             invalid={!runnable}
             issueCount={issues.size}
             stale={stale}
@@ -258,7 +272,7 @@ export function App() {
                     <QuantitySelect value={quantity} onChange={setQuantity} disabled={compare || diffOn}
                       note={compare || diffOn ? 'Comparison and difference maps show exposure' : 'Colour the map by exposure or by radiometer noise'} />
                     <button type="button" className="small" title="Figures of merit for a grid of sites over the body (below the results)"
-                      onClick={() => document.getElementById('survey-head')?.scrollIntoView({ behavior: 'smooth', block: 'start' })}>
+                      onClick={() => { setPhoneTab('results'); requestAnimationFrame(() => document.getElementById('survey-head')?.scrollIntoView({ behavior: 'smooth', block: 'start' })); }}>
                       Site survey ↓
                     </button>
                     <label className="check">

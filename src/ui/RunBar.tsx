@@ -1,10 +1,15 @@
 import type { EngineState } from './state/useEngine';
+import { duration } from './format';
 
 // Compute / progress / cancel, the estimate before a run, and what the map on screen shows.
 
-export function RunBar({ engine, estimateText, invalid, issueCount, stale, auto, onAuto, onCompute, longRun }: {
+// At phone width (<= 480 px) the bar is compact: the long texts (class "long") give way to short ones
+// (class "short"), so it stays one or two lines under the section tabs.
+
+export function RunBar({ engine, estimateText, estimateSeconds = null, invalid, issueCount, stale, auto, onAuto, onCompute, longRun }: {
   engine: EngineState & { cancel: () => void };
   estimateText: string | null;
+  estimateSeconds?: number | null;
   invalid: boolean;
   issueCount: number;
   stale: boolean;
@@ -21,7 +26,7 @@ export function RunBar({ engine, estimateText, invalid, issueCount, stale, auto,
           Compute
         </button>
         <label className="check" title={`Recompute after each change when the estimate is short`}>
-          <input type="checkbox" checked={auto} onChange={(e) => onAuto(e.target.checked)} /> Update automatically
+          <input type="checkbox" checked={auto} onChange={(e) => onAuto(e.target.checked)} /> <span className="long">Update automatically</span><span className="short">Auto-update</span>
         </label>
         {engine.running && (
           <span className="progress-wrap">
@@ -34,16 +39,22 @@ export function RunBar({ engine, estimateText, invalid, issueCount, stale, auto,
       <div className="run-status" aria-live="polite">
         {invalid ? (
           <span className="warn" data-testid="invalid-status">
-            {issueCount} problem{issueCount === 1 ? '' : 's'} in the scenario (marked in the panel); the map shows the last computed scenario.
+            {issueCount} problem{issueCount === 1 ? '' : 's'} in the scenario<span className="long"> (marked in the panel); the map shows the last computed scenario</span>.
           </span>
         ) : (
-          estimateText && <span>Estimate: {estimateText}.{longRun && !engine.running && stale ? ' Press Compute to run it.' : ''}</span>
+          estimateText && (
+            <span>
+              <span className="long">Estimate: {estimateText}.</span>
+              {estimateSeconds !== null && <span className="short" title={`Estimate: ${estimateText}`}>Estimate {duration(estimateSeconds)}.</span>}
+              {longRun && !engine.running && stale ? ' Press Compute to run it.' : ''}
+            </span>
+          )
         )}
         {!invalid && stale && !engine.running && <span className="warn"> The map shows the previous settings.</span>}
         {engine.cancelled && !engine.running && <span> Cancelled; the previous result is kept.</span>}
         {engine.error && <span className="error" role="alert" data-testid="engine-error"> {engine.error}</span>}
         {!engine.running && engine.lastMs !== null && !stale && !invalid && (
-          <span className="muted"> Computed in {(engine.lastMs / 1000).toFixed(1)} s.</span>
+          <span className="muted"> <span className="long">Computed in</span><span className="short">Took</span> {(engine.lastMs / 1000).toFixed(1)} s.</span>
         )}
       </div>
     </section>

@@ -267,7 +267,10 @@ test('narrow screen: the panel and the map are both usable at 400 px', async ({ 
   // the time scrubber and the comparison panel fit too (wide tables scroll inside their boxes)
   await page.getByLabel('Time scrubber').check();
   await page.getByRole('button', { name: 'Pin this result as A' }).click();
+  // at this width the form, the map and the results are tabs (tests/e2e/phone.spec.ts)
+  await page.getByRole('tab', { name: /Scenario/ }).click();
   await page.getByLabel('Scenario name').fill('Narrow B');
+  await page.getByRole('tab', { name: 'Results' }).click();
   await expect(page.getByTestId('compare-panel')).toBeVisible({ timeout: 60_000 });
   const overflow2 = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
   expect(overflow2).toBeLessThanOrEqual(1);

@@ -1,6 +1,7 @@
 import type { PlanResult } from '../../core/types';
 import { ResultsTable } from '../results/ResultsTable';
 import { overlapAt } from './overlap';
+import { ScrollCue } from '../ScrollCue';
 import { percent, sig } from '../format';
 import { bodyLabel, latLabel, lonLabel } from '../caption';
 
@@ -32,6 +33,7 @@ export function ComparePanel({ a, b, freqIndex, onSelect, onUnpin }: {
       ) : pairs.length === 0 ? (
         <p className="warn">The two plans share no frequency; overlap is computed per frequency.</p>
       ) : (
+        <ScrollCue>
         <table className="results compact" data-testid="overlap-table">
           <thead>
             <tr><th scope="col">Frequency</th><th scope="col">Sky in both</th><th scope="col">Only A</th><th scope="col">Only B</th><th scope="col">Overlap (both / either)</th></tr>
@@ -49,6 +51,7 @@ export function ComparePanel({ a, b, freqIndex, onSelect, onUnpin }: {
             })}
           </tbody>
         </table>
+        </ScrollCue>
       )}
       <p className="hint">Sky fractions are of the whole sky; a pixel counts as covered when its centre came within FWHM/2 of the usable zenith track.</p>
       <div className="compare-tables">

@@ -1,6 +1,7 @@
 import { useId } from 'react';
 import type { PlanResult } from '../../core/types';
 import { fixed, hours, percent, sig, wavelength } from '../format';
+import { ScrollCue } from '../ScrollCue';
 
 // One row per frequency, straight from PlanResult.summary (the same figures as summary.json).
 
@@ -12,7 +13,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
       <p className="table-cap" id={capId}>
         Per-frequency coverage over {hours(s.hours.total)} h of span, {hours(s.hours.usable)} h usable
       </p>
-      <div className="table-wrap" tabIndex={0} role="region" aria-labelledby={capId}>
+      <ScrollCue labelledBy={capId} testId="results-scroll">
       <table className="results" data-testid="results-table" aria-labelledby={capId}>
         <thead>
           <tr>
@@ -62,7 +63,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
           ))}
         </tbody>
       </table>
-      </div>
+      </ScrollCue>
       <p className="table-note">
         Zenith declination {fixed(s.zenith.dec_min_deg, 2)}° to {fixed(s.zenith.dec_max_deg, 2)}°; ecliptic latitude{' '}
         {fixed(s.zenith.ecl_lat_min_deg, 2)}° to {fixed(s.zenith.ecl_lat_max_deg, 2)}°. Sun down {hours(s.hours.sun_down)} h
