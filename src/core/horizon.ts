@@ -1,6 +1,8 @@
 // The local horizon mask: elevation of the skyline as a function of azimuth.
 
-export type HorizonMask = [number, number][];
+import type { HorizonPoint } from './types';
+
+export type HorizonMask = HorizonPoint[];
 
 /**
  * Mask elevation (degrees) at an azimuth (degrees from north through east),

@@ -1,4 +1,5 @@
-import type { BeamModel, BodyName, FieldIssue, Scenario } from './types';
+import type { BeamModel, BodyName, FieldIssue, HorizonPoint, Scenario } from './types';
+import { hasIonosphere, interplanetaryCutoffMHz } from './shielding/plasma';
 import { parseUtcMs } from './time';
 import { fwhmRad } from './beam';
 
@@ -20,7 +21,8 @@ export const SCENARIO_LIMITS = {
   step_min: [0.01, 1440],
   aperture_m: [1, 100_000],
   frequencies_count: [1, 16],
-  frequency_mhz: [0.1, 100_000],
+  /** the interplanetary plasma cut-off near the body raises the lower end (shielding/plasma.ts) */
+  frequency_mhz: [0.001, 100_000],
   fwhm_factor: [0.5, 3],
   /** Optional sensitivity inputs (radiometer equation): channel bandwidth and receiver temperature. */
   bandwidth_mhz: [0.000001, 100_000],
@@ -31,6 +33,12 @@ export const SCENARIO_LIMITS = {
   horizon_points: [1, 3600],
   horizon_az_deg: [0, 360],
   horizon_el_deg: [-90, 90],
+  /** Rim distance (diffraction over the rim): greater than the first value, at most the second. */
+  rim_distance_m: [0, 1_000_000],
+  min_attenuation_db: [0, 200],
+  /** The ionosphere's critical frequency (day and night values). */
+  critical_mhz: [0, 30],
+  sun_min_separation_deg: [0, 180],
   nside: [8, 1024],
   galactic_band_deg: [0, 90],
   galactic_center_radius_deg: [0, 180],
@@ -241,25 +249,28 @@ export function horizonPointIssues(azField: string, elField: string, az: unknown
   return iss.list;
 }
 
-function horizonMask(iss: Issues, field: string, v: unknown): [number, number][] | null | undefined {
+function horizonMask(iss: Issues, field: string, v: unknown): HorizonPoint[] | null | undefined {
   if (v === null || v === undefined) return null;
   const [lo, hi] = SCENARIO_LIMITS.horizon_points;
   if (!Array.isArray(v)) {
-    iss.add(field, `${field} must be null or a list of [azimuth_deg, elevation_deg] points, got ${describeValue(v)}`);
+    iss.add(field, `${field} must be null or a list of [azimuth_deg, elevation_deg] points (optionally [azimuth_deg, elevation_deg, rim_distance_m]), got ${describeValue(v)}`);
     return undefined;
   }
   if (v.length < lo || v.length > hi) {
     iss.add(field, `${field} must have ${lo} to ${hi} points (or be null), got ${v.length}`);
     return undefined;
   }
-  const out: [number, number][] = [];
+  const out: HorizonPoint[] = [];
   let prevAz: number | null = null;
   let bad = false;
+  const withRim = Array.isArray(v[0]) && v[0].length === 3;
   for (let i = 0; i < v.length; i++) {
     const p = v[i];
     const where = `${field}[${i}]`;
-    if (!Array.isArray(p) || p.length !== 2) {
-      iss.add(where, `${where} must be a pair [azimuth_deg, elevation_deg], got ${describeValue(p)}`);
+    if (!Array.isArray(p) || p.length !== (withRim ? 3 : 2)) {
+      iss.add(where, withRim
+        ? `${where} must be [azimuth_deg, elevation_deg, rim_distance_m] like the first point (a rim distance on every point or on none), got ${describeValue(p)}`
+        : `${where} must be a pair [azimuth_deg, elevation_deg] like the first point (a rim distance on every point or on none), got ${describeValue(p)}`);
       bad = true;
       prevAz = null;
       continue;
@@ -271,7 +282,14 @@ function horizonMask(iss: Issues, field: string, v: unknown): [number, number][]
       prevAz = typeof p[0] === 'number' && p[0] >= 0 && p[0] <= 360 ? p[0] : null;
       continue;
     }
-    out.push([p[0] === 0 ? 0 : p[0], p[1] === 0 ? 0 : p[1]]);
+    if (withRim && !rimDistanceOk(p[2])) {
+      iss.add(`${where}[2]`, `${where}[2] (rim distance) must be a number of metres greater than 0 and at most ${SCENARIO_LIMITS.rim_distance_m[1]}, got ${describeValue(p[2])}`);
+      bad = true;
+      prevAz = p[0];
+      continue;
+    }
+    const pair: [number, number] = [p[0] === 0 ? 0 : p[0], p[1] === 0 ? 0 : p[1]];
+    out.push(withRim ? [pair[0], pair[1], p[2] as number] : pair);
     prevAz = p[0];
   }
   return bad ? undefined : out;
@@ -284,7 +302,13 @@ const SITE_KEYS = ['body', 'lat_deg', 'lon_deg'] as const;
 const SPAN_KEYS = ['start', 'end', 'step_min'] as const;
 const TELESCOPE_KEYS = ['aperture_m', 'frequencies_mhz', 'beam', 'bandwidth_mhz', 'receiver_temp_k'] as const;
 const BEAM_KEYS = ['model', 'fwhm_factor'] as const;
-const CONSTRAINT_KEYS = ['sun_max_elev_deg', 'earth_max_elev_deg', 'horizon_mask'] as const;
+const CONSTRAINT_KEYS = ['sun_max_elev_deg', 'earth_max_elev_deg', 'horizon_mask', 'diffraction', 'ionosphere', 'sun_min_separation_deg'] as const;
+const DIFFRACTION_KEYS = ['rim_distance_m', 'min_attenuation_db'] as const;
+const IONOSPHERE_KEYS = ['day_mhz', 'night_mhz'] as const;
+
+function rimDistanceOk(v: unknown): v is number {
+  return typeof v === 'number' && Number.isFinite(v) && v > SCENARIO_LIMITS.rim_distance_m[0] && v <= SCENARIO_LIMITS.rim_distance_m[1];
+}
 const MAP_KEYS = ['nside', 'galactic_band_deg', 'galactic_center_radius_deg'] as const;
 
 function optionalObject(iss: Issues, path: string, v: unknown, known: readonly string[]): Record<string, unknown> | null {
@@ -376,7 +400,10 @@ function parseUnsafe(input: unknown): ParseResult {
   // constraints
   let sunMax: number | null | undefined = SCENARIO_DEFAULTS.sun_max_elev_deg;
   let earthMax: number | null | undefined = body === 'earth' ? null : SCENARIO_DEFAULTS.earth_max_elev_deg;
-  let mask: [number, number][] | null | undefined = SCENARIO_DEFAULTS.horizon_mask;
+  let mask: HorizonPoint[] | null | undefined = SCENARIO_DEFAULTS.horizon_mask;
+  let diffraction: Scenario['constraints']['diffraction'] | undefined;
+  let ionosphere: Scenario['constraints']['ionosphere'] | undefined;
+  let sunSep: number | undefined;
   const con = optionalObject(iss, 'constraints', top.constraints, CONSTRAINT_KEYS);
   if (!con) sunMax = earthMax = mask = undefined;
   else {
@@ -389,7 +416,11 @@ function parseUnsafe(input: unknown): ParseResult {
       }
     }
     if (has(con, 'horizon_mask')) mask = horizonMask(iss, 'constraints.horizon_mask', con.horizon_mask);
+    if (has(con, 'diffraction')) diffraction = diffractionSetting(iss, con.diffraction, mask);
+    if (has(con, 'ionosphere')) ionosphere = ionosphereSetting(iss, con.ionosphere, body);
+    if (has(con, 'sun_min_separation_deg')) sunSep = num(iss, 'constraints.sun_min_separation_deg', con.sun_min_separation_deg, SCENARIO_LIMITS.sun_min_separation_deg);
   }
+  if (freqs !== undefined && body !== undefined) plasmaCutoffCheck(iss, freqs, body);
 
   // map
   let nside: number | undefined = SCENARIO_DEFAULTS.nside;
@@ -422,7 +453,65 @@ function parseUnsafe(input: unknown): ParseResult {
   };
   if (bandwidth !== undefined) s.telescope.bandwidth_mhz = bandwidth;
   if (receiverK !== undefined) s.telescope.receiver_temp_k = receiverK;
+  if (diffraction !== undefined) s.constraints.diffraction = diffraction;
+  if (ionosphere !== undefined) s.constraints.ionosphere = ionosphere;
+  if (sunSep !== undefined) s.constraints.sun_min_separation_deg = sunSep;
   return { ok: true, scenario: s };
+}
+
+function diffractionSetting(iss: Issues, v: unknown, mask: HorizonPoint[] | null | undefined): Scenario['constraints']['diffraction'] | undefined {
+  const f = 'constraints.diffraction';
+  const o = readObject(iss, f, v, DIFFRACTION_KEYS);
+  if (!o) return undefined;
+  const att = num(iss, `${f}.min_attenuation_db`, o.min_attenuation_db, SCENARIO_LIMITS.min_attenuation_db);
+  const perPoint = Array.isArray(mask) && mask.length > 0 && mask[0].length === 3;
+  let rim: number | null | undefined = null;
+  const given = has(o, 'rim_distance_m') && o.rim_distance_m !== null;
+  if (given) {
+    if (!rimDistanceOk(o.rim_distance_m)) {
+      iss.add(`${f}.rim_distance_m`, `${f}.rim_distance_m must be a number of metres greater than 0 and at most ${SCENARIO_LIMITS.rim_distance_m[1]}, got ${describeValue(o.rim_distance_m)}`);
+      rim = undefined;
+    } else if (perPoint) {
+      iss.add(`${f}.rim_distance_m`, `${f}.rim_distance_m must be null when the horizon mask gives a rim distance on every point (its third value); give one or the other, got ${describeValue(o.rim_distance_m)}`);
+      rim = undefined;
+    } else rim = o.rim_distance_m as number;
+  }
+  if (mask === null) {
+    iss.add(f, `${f} needs a horizon mask (constraints.horizon_mask): the rim is what diffracts; set a mask or remove ${f}`);
+    return undefined;
+  }
+  if (mask !== undefined && !given && !perPoint) {
+    iss.add(`${f}.rim_distance_m`, `${f}.rim_distance_m is required (metres, greater than 0 and at most ${SCENARIO_LIMITS.rim_distance_m[1]}) unless every horizon_mask point has a third value, the rim distance`);
+    return undefined;
+  }
+  if (att === undefined || rim === undefined || mask === undefined) return undefined;
+  return { rim_distance_m: rim, min_attenuation_db: att };
+}
+
+function ionosphereSetting(iss: Issues, v: unknown, body: BodyName | undefined): Scenario['constraints']['ionosphere'] | undefined {
+  const f = 'constraints.ionosphere';
+  const o = readObject(iss, f, v, IONOSPHERE_KEYS);
+  if (!o) return undefined;
+  const r = SCENARIO_LIMITS.critical_mhz;
+  const day = num(iss, `${f}.day_mhz`, o.day_mhz, r);
+  const night = num(iss, `${f}.night_mhz`, o.night_mhz, r);
+  if (body !== undefined && !hasIonosphere(body)) {
+    iss.add(f, `${f} applies to Earth and Mars sites only (the ${body} has no ionosphere that cuts off the sky); remove it`);
+    return undefined;
+  }
+  if (day === undefined || night === undefined) return undefined;
+  return { day_mhz: day, night_mhz: night };
+}
+
+/** Frequencies below the interplanetary plasma frequency near the body never reach it. */
+function plasmaCutoffCheck(iss: Issues, freqs: number[], body: BodyName): void {
+  const cut = interplanetaryCutoffMHz(body);
+  freqs.forEach((f, i) => {
+    if (f < cut) {
+      const field = `telescope.frequencies_mhz[${i}]`;
+      iss.add(field, `${field} must be at least ${sig3(cut)} MHz for a site on the ${body}, got ${f}: below the interplanetary plasma frequency there (${sig3(cut * 1000)} kHz, from a solar-wind density of 7 electrons per cm³ at 1 AU) radio waves from the sky cannot propagate to the site`);
+    }
+  });
 }
 
 function nullableNum(iss: Issues, field: string, v: unknown, range: readonly [number, number]): number | null | undefined {
@@ -572,7 +661,10 @@ export function canonical(s: Scenario): Scenario {
     constraints: {
       sun_max_elev_deg: s.constraints.sun_max_elev_deg,
       earth_max_elev_deg: s.constraints.earth_max_elev_deg,
-      horizon_mask: s.constraints.horizon_mask ? s.constraints.horizon_mask.map(([a, e]) => [a, e] as [number, number]) : null,
+      horizon_mask: s.constraints.horizon_mask ? s.constraints.horizon_mask.map((p) => [...p] as HorizonPoint) : null,
+      ...(s.constraints.diffraction ? { diffraction: { rim_distance_m: s.constraints.diffraction.rim_distance_m, min_attenuation_db: s.constraints.diffraction.min_attenuation_db } } : {}),
+      ...(s.constraints.ionosphere ? { ionosphere: { day_mhz: s.constraints.ionosphere.day_mhz, night_mhz: s.constraints.ionosphere.night_mhz } } : {}),
+      ...(s.constraints.sun_min_separation_deg !== undefined ? { sun_min_separation_deg: s.constraints.sun_min_separation_deg } : {}),
     },
     map: { nside: s.map.nside, galactic_band_deg: s.map.galactic_band_deg, galactic_center_radius_deg: s.map.galactic_center_radius_deg },
   };

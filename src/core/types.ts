@@ -23,11 +23,20 @@ export interface Scenario {
   constraints: {
     sun_max_elev_deg: number | null;
     earth_max_elev_deg: number | null;
-    /** [[azimuth_deg, elevation_deg], ...], azimuth from north through east. */
-    horizon_mask: [number, number][] | null;
+    /** [[azimuth_deg, elevation_deg(, rim_distance_m)], ...], azimuth from north through east. */
+    horizon_mask: HorizonPoint[] | null;
+    /** added, optional: shielding by diffraction over the rim (ARCHITECTURE.md §6); kept only when given */
+    diffraction?: { rim_distance_m: number | null; min_attenuation_db: number };
+    /** added, optional: the ionosphere's critical frequency, MHz, with the Sun above / below the horizon (Earth and Mars sites) */
+    ionosphere?: { day_mhz: number; night_mhz: number };
+    /** added, optional: the Sun's centre at least this far from every boresight, degrees */
+    sun_min_separation_deg?: number;
   };
   map: { nside: number; galactic_band_deg: number; galactic_center_radius_deg: number };
 }
+
+/** A horizon-mask point: azimuth and elevation (degrees), optionally the distance to that point of the rim (metres). */
+export type HorizonPoint = [number, number] | [number, number, number];
 
 /** One problem found in an input; `field` is a dotted path such as `site.lat_deg`. */
 export interface FieldIssue {
@@ -98,6 +107,12 @@ export interface FrequencySummary {
   t_sys_k?: number;
   /** added: median over covered pixels of the radiometer-equation noise, K; NaN (null in JSON) when no pixel is covered */
   noise_median_k?: number;
+  /** hours usable at this frequency (ARCHITECTURE.md §6); equal for every frequency when nothing depends on frequency */
+  usable_hours?: number;
+  /** added: what usable_hours would be with the horizon mask as a perfect shield (no diffraction) */
+  usable_hours_geometric?: number;
+  /** added: why this frequency loses time to a plasma cut-off, in words; absent when it does not */
+  usable_note?: string;
 }
 
 /** added: the sensitivity inputs and model a run used (the radiometer equation). */
@@ -134,7 +149,7 @@ export interface Summary {
 export interface PlanResult {
   scenario: Scenario;
   track: Track;
-  /** 1 where the sample is usable under the scenario's constraints. */
+  /** 1 where the sample is usable under the scenario's constraints (at one frequency at least). */
   usable: Uint8Array;
   /** Exposure in hours per HEALPix RING pixel at scenario.map.nside, one map per frequency (same order). */
   maps: Float32Array[];
@@ -143,4 +158,6 @@ export interface PlanResult {
   noise_maps?: Float32Array[];
   /** added: 1 where the pixel centre came within FWHM/2 of the usable path (the sky_fraction_covered mask), per frequency */
   covered?: Uint8Array[];
+  /** added: usable flags per frequency (identical ones are the same array); `usable` is their union */
+  usable_by_freq?: Uint8Array[];
 }

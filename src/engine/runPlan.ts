@@ -13,7 +13,8 @@
 import type { FrequencySummary, PlanResult, Scenario, Stage, Summary, Track } from '../core/types';
 import { parseScenario, ScenarioError } from '../core/scenario';
 import { trackStage } from '../core/ephemeris';
-import { galacticSummary, hoursSummary, usableMaskStage, zenithSummary } from '../core/usable';
+import { galacticSummary, hoursSummary, zenithSummary } from '../core/usable';
+import { distinctMasks, frequencyLimitsStage, ionosphereNote, usableAtAny, usableByFrequency, usableHoursAt, type FrequencyLimits } from '../core/shielding/usableByFrequency';
 import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, type HitMap } from '../core/coverage';
 import { frequencySummary, SENSITIVITY_DEFAULTS, sensitivityFor, SKY_MODEL_LABEL, SKY_MODEL_NOTE } from '../core/stats';
 import { stepMin } from '../core/time';
@@ -44,9 +45,21 @@ export class CancelledError extends Error {
 
 /** What a result keeps beside its public fields for the next run's reuse (never exported). */
 interface Internals {
-  hit: HitMap;
-  /** the nside the hit map was asked for (it may be coarser if it hit its memory budget) */
-  hitRequested: number;
+  limits: FrequencyLimits;
+  /** one hit map per distinct usable mask */
+  hits: { usable: Uint8Array; hit: HitMap; /** the nside asked for (it may be coarser if it hit its memory budget) */ requested: number }[];
+}
+
+/** What the boresights (the Sun-near-beam constraint) may depend on: the telescope apart from its frequencies. */
+function boresightInputs(s: Scenario): unknown {
+  return { ...s.telescope, frequencies_mhz: null };
+}
+
+function sameBytes(a: Uint8Array, b: Uint8Array): boolean {
+  if (a === b) return true;
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 const internals = new WeakMap<PlanResult, Internals>();
 
@@ -129,21 +142,33 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   else track = await d.run('ephemeris', trackStage(s, { mode: 'fast' }));
   d.report('ephemeris', 1);
 
-  // Usable flags
-  let usable: Uint8Array;
-  const keepUsable = keepTrack && sameJson(prev!.scenario.constraints, s.constraints);
+  // Usable flags per frequency: the lowest usable frequency of each sample,
+  // then each frequency's flags (identical flags are one shared array)
+  const freqsMhz = s.telescope.frequencies_mhz;
+  const keepUsable = keepTrack && sameJson(prev!.scenario.constraints, s.constraints) && sameJson(boresightInputs(prev!.scenario), boresightInputs(s));
+  const prevInt = keepUsable ? internals.get(prev!) : undefined;
   d.report('usable', 0);
-  if (keepUsable) usable = prev!.usable;
-  else usable = await d.run('usable', usableMaskStage(track, s.constraints));
+  const limits = prevInt ? prevInt.limits : await d.run('usable', frequencyLimitsStage(track, s));
+  // flags equal to the previous run's stay the very same arrays (the app redraws by identity)
+  const keepSame = (u: Uint8Array): Uint8Array => (prevInt ? prevInt.hits.find((h) => sameBytes(h.usable, u))?.usable ?? u : u);
+  const usableByFreq = usableByFrequency(limits.fminMHz, freqsMhz).map(keepSame);
+  const anyFreq = usableAtAny(limits.fminMHz, freqsMhz);
+  const usable = prevInt && sameBytes(prev!.usable, anyFreq) ? prev!.usable : anyFreq;
   d.report('usable', 1);
 
-  // Hit map, fine enough for the narrowest beam
-  const beams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam));
-  const fwhmMin = Math.min(...beams.map((b) => b.fwhmRad));
-  const needNside = hitNsideFor(fwhmMin);
+  // Hit maps: one per distinct usable mask, fine enough for the narrowest beam using it
+  const beams = freqsMhz.map((f) => beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam));
+  const groups = distinctMasks(usableByFreq);
+  const hits: Internals['hits'] = [];
   d.report('hits', 0);
-  const prevInt = keepUsable ? internals.get(prev!) : undefined;
-  const hit = prevInt && prevInt.hitRequested === needNside ? prevInt.hit : await d.run('hits', hitMapStage(track, usable, { nside: needNside }));
+  for (let g = 0; g < groups.unique.length; g++) {
+    const mask = groups.unique[g];
+    const fwhmMin = Math.min(...beams.filter((_, k) => groups.index[k] === g).map((b) => b.fwhmRad));
+    const needNside = hitNsideFor(fwhmMin);
+    const old = prevInt?.hits.find((h) => h.requested === needNside && sameBytes(h.usable, mask));
+    const hit = old ? old.hit : await d.run('hits', hitMapStage(track, mask, { nside: needNside }), g / groups.unique.length, (g + 1) / groups.unique.length);
+    hits.push({ usable: mask, hit, requested: needNside });
+  }
   d.report('hits', 1);
 
   // Exposure and covered sky per frequency
@@ -160,6 +185,8 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   d.report('exposure', 0);
   for (let k = 0; k < nf; k++) {
     const lo = k / nf, mid = (k + 0.8) / nf, hi = (k + 1) / nf;
+    const hit = hits[groups.index[k]].hit;
+    const usableK = usableByFreq[k];
     const map = await d.run('exposure', exposureStage(hit, beams[k], nside), lo, mid);
     const covered = await d.run('exposure', coveredStage(hit, beams[k].fwhmRad / 2, nside), mid, hi);
     maps.push(map);
@@ -167,11 +194,15 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     const mhz = s.telescope.frequencies_mhz[k];
     const noise = sensitivityFor(mhz, map, covered, sens);
     noiseMaps.push(noise.noise);
+    const note = ionosphereNote(s, mhz);
     freqs.push({
-      ...frequencySummary({ mhz, fwhmRad: beams[k].fwhmRad, exposure: map, covered, track, usable, map: s.map }),
+      ...frequencySummary({ mhz, fwhmRad: beams[k].fwhmRad, exposure: map, covered, track, usable: usableK, map: s.map }),
       t_sky_k: noise.t_sky_k,
       t_sys_k: noise.t_sys_k,
       noise_median_k: noise.noise_median_k,
+      usable_hours: usableHoursAt(track, limits.fminMHz, mhz),
+      usable_hours_geometric: usableHoursAt(track, limits.fminGeometricMHz, mhz),
+      ...(note ? { usable_note: note } : {}),
     });
     await d.maybeTurn('exposure', hi);
   }
@@ -191,7 +222,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   };
   d.check();
   d.report('summary', 1);
-  const result: PlanResult = { scenario: s, track, usable, maps, summary, noise_maps: noiseMaps, covered: coveredMasks };
-  internals.set(result, { hit, hitRequested: needNside });
+  const result: PlanResult = { scenario: s, track, usable, maps, summary, noise_maps: noiseMaps, covered: coveredMasks, usable_by_freq: usableByFreq };
+  internals.set(result, { limits, hits });
   return result;
 }

@@ -42,6 +42,11 @@ export function transferableCopy(r: PlanResult): { copy: PlanResult; transfer: A
   const copy: PlanResult = { scenario: r.scenario, track, usable: dup(r.usable), maps: r.maps.map(dup), summary: r.summary };
   if (r.noise_maps) copy.noise_maps = r.noise_maps.map(dup);
   if (r.covered) copy.covered = r.covered.map(dup);
+  if (r.usable_by_freq) {
+    // identical flags stay one array (structured cloning keeps shared references)
+    const once = new Map<Uint8Array, Uint8Array>();
+    copy.usable_by_freq = r.usable_by_freq.map((u) => once.get(u) ?? once.set(u, dup(u)).get(u)!);
+  }
   return { copy, transfer };
 }
 

@@ -41,7 +41,17 @@ describe('parseHorizonCsv', () => {
       { field: 'line 5', message: "line 5: azimuth must be greater than the previous point's azimuth (10), got 5: list points in increasing azimuth" },
       { field: 'line 6', message: 'line 6: azimuth must be a number, got "abc"' },
       { field: 'line 7', message: 'line 7: azimuth must be a number, got "12,5" (use a point as the decimal separator)' },
-      { field: 'line 8', message: 'line 8: expected 2 values (azimuth_deg, elevation_deg), got 3: "1,2,3"' },
+      { field: 'line 8', message: 'line 8: expected 2 values (azimuth_deg, elevation_deg) like the first point, got 3: "1,2,3"' },
+    ]);
+  });
+
+  it('reads a third column, the rim distance, when every line has one', () => {
+    const r = parseHorizonCsv('azimuth_deg,elevation_deg,rim_distance_m\n0,12,600\n180,10,450.5\n');
+    expect(r).toEqual({ ok: true, mask: [[0, 12, 600], [180, 10, 450.5]] });
+    expect(parseHorizonCsv(horizonCsv((r as { mask: [number, number, number][] }).mask))).toEqual(r);
+    expect(issues('0,12,600\n90,3\n180,5,0\n')).toEqual([
+      { field: 'line 2', message: 'line 2: expected 3 values (azimuth_deg, elevation_deg, rim_distance_m) like the first point, got 2: "90,3"' },
+      { field: 'line 3', message: 'line 3: rim distance must be a number of metres greater than 0 and at most 1000000, got 0' },
     ]);
   });
 

@@ -170,7 +170,7 @@ describe('messages name the field, the allowed range and the value got', () => {
     expect(messages(s)).toEqual([
       'format is required (must be "swathe.scenario/1")',
       'site.lat_deg is required (a number between -90 and 90)',
-      'telescope.frequencies_mhz is required (a list of 1 to 16 frequencies in MHz, each between 0.1 and 100000)',
+      'telescope.frequencies_mhz is required (a list of 1 to 16 frequencies in MHz, each between 0.001 and 100000)',
     ]);
   });
 
@@ -184,8 +184,8 @@ describe('messages name the field, the allowed range and the value got', () => {
       'site.lat_deg must be a number between -90 and 90, got "12"',
       'site.lon_deg must be a finite number, got Infinity',
       'telescope.aperture_m must be a number between 1 and 100000, got NaN',
-      'telescope.frequencies_mhz[1] must be a number between 0.1 and 100000, got null',
-      'telescope.frequencies_mhz[2] must be a number between 0.1 and 100000, got -Infinity',
+      'telescope.frequencies_mhz[1] must be a number between 0.001 and 100000, got null',
+      'telescope.frequencies_mhz[2] must be a number between 0.001 and 100000, got -Infinity',
     ]);
   });
 
@@ -222,10 +222,10 @@ describe('messages name the field, the allowed range and the value got', () => {
     expect(parseScenario(count(16)).ok).toBe(true);
     expect(messages(count(1_000_000))).toEqual(['telescope.frequencies_mhz must have 1 to 16 frequencies, got 1000000']);
     const s = minimal();
-    s.telescope.frequencies_mhz = [0.05, 100001, 10, 10];
+    s.telescope.frequencies_mhz = [0.0005, 100001, 10, 10];
     expect(messages(s)).toEqual([
-      'telescope.frequencies_mhz[0] must be between 0.1 and 100000, got 0.05',
-      'telescope.frequencies_mhz[1] must be between 0.1 and 100000, got 100001',
+      'telescope.frequencies_mhz[0] must be between 0.001 and 100000, got 0.0005',
+      'telescope.frequencies_mhz[1] must be between 0.001 and 100000, got 100001',
       'telescope.frequencies_mhz[3] repeats 10 MHz (already at [2]); give each frequency once',
     ]);
   });
@@ -269,7 +269,7 @@ describe('messages name the field, the allowed range and the value got', () => {
       'constraints.horizon_mask[1][0] (azimuth) must be between 0 and 360, got 361',
       'constraints.horizon_mask[2][1] (elevation) must be between -90 and 90, got -91',
       'constraints.horizon_mask[3][0] (azimuth) must be greater than the previous point\'s azimuth (90), got 80: list points in increasing azimuth',
-      'constraints.horizon_mask[4] must be a pair [azimuth_deg, elevation_deg], got a list of 3 items',
+      'constraints.horizon_mask[4] must be a pair [azimuth_deg, elevation_deg] like the first point (a rim distance on every point or on none), got a list of 3 items',
     ]);
   });
 

@@ -1,6 +1,10 @@
 import type { PlanResult } from '../types';
 import { pix2vecRingInto } from '../healpix';
 import { ICRS_TO_GAL } from '../frames';
+import { prepareMask } from '../horizon';
+import { prepareRimDistance } from '../shielding/rim';
+import { attenuatedBodies, bodyRimLossDb } from '../shielding/usableByFrequency';
+import { sunBoresightSeparationDeg } from '../shielding/boresights';
 
 // coverage.csv and track.csv, exactly as ARCHITECTURE.md §3. Both come as a
 // stream of chunks too, because a full-resolution map (nside 1024: 12.6
@@ -135,12 +139,45 @@ function utcFormatter(t0Ms: number, stepMs: number): (ms: number) => string {
 
 const TRACK_COLUMNS = ['utc', 'ra_deg', 'dec_deg', 'l_deg', 'b_deg', 'sun_elev_deg', 'earth_elev_deg', 'usable'];
 
-/** track.csv in chunks: one row per sample; earth_elev_deg empty for Earth sites; usable 0/1. */
+/**
+ * The columns after `usable`, present only when the scenario asks for them:
+ * per frequency, `usable_<f>mhz` when usable time depends on frequency
+ * (diffraction or an ionosphere), `sun_atten_db_<f>mhz` / `earth_atten_db_<f>mhz`
+ * (knife-edge loss over the rim of each constrained body) with diffraction;
+ * `sun_beam_sep_deg` (the Sun's centre to the nearest boresight) with that constraint.
+ */
+function trackExtras(result: PlanResult): { head: string[]; cells: (i: number) => string } {
+  const s = result.scenario, t = result.track, c = s.constraints;
+  const freqs = s.telescope.frequencies_mhz;
+  const head: string[] = [];
+  const parts: ((i: number) => string)[] = [];
+  const byFreq = result.usable_by_freq;
+  if ((c.diffraction || c.ionosphere) && byFreq) {
+    freqs.forEach((f, k) => { head.push(`usable_${String(f)}mhz`); parts.push((i) => (byFreq[k][i] ? '1' : '0')); });
+  }
+  if (c.diffraction) {
+    const prepared = { mask: prepareMask(c.horizon_mask), rim: prepareRimDistance(c.horizon_mask, c.diffraction.rim_distance_m) };
+    for (const body of attenuatedBodies(t, s)) {
+      freqs.forEach((f) => {
+        head.push(`${body}_atten_db_${String(f)}mhz`);
+        parts.push((i) => (bodyRimLossDb(t, s, body, i, f, prepared) ?? 0).toFixed(2));
+      });
+    }
+  }
+  if (c.sun_min_separation_deg !== undefined) {
+    head.push('sun_beam_sep_deg');
+    parts.push((i) => fmtDeg(sunBoresightSeparationDeg(s, t, i)));
+  }
+  return { head, cells: (i) => (parts.length ? ',' + parts.map((p) => p(i)).join(',') : '') };
+}
+
+/** track.csv in chunks: one row per sample; earth_elev_deg empty for Earth sites; usable 0/1 (at one frequency at least). */
 export function* trackCsvChunks(result: PlanResult): Generator<string, void, void> {
   const t = result.track;
   const u = result.usable;
   if (u.length !== t.n) throw new Error(`usable flags have ${u.length} entries, expected ${t.n}`);
-  yield TRACK_COLUMNS.map(csvCell).join(',') + '\n';
+  const extra = trackExtras(result);
+  yield [...TRACK_COLUMNS, ...extra.head].map(csvCell).join(',') + '\n';
   const stepMs = t.step_min * 60_000;
   const utc = utcFormatter(t.t0_ms, stepMs);
   const earth = t.earth_elev_deg;
@@ -148,7 +185,7 @@ export function* trackCsvChunks(result: PlanResult): Generator<string, void, voi
   for (let i = 0; i < t.n; i++) {
     rows.push(
       `${csvCell(utc(t.t0_ms + i * stepMs))},${fmtLonDeg(t.ra_deg[i])},${fmtDeg(t.dec_deg[i])},${fmtLonDeg(t.l_deg[i])},${fmtDeg(t.b_deg[i])},` +
-        `${fmtDeg(t.sun_elev_deg[i])},${earth ? fmtDeg(earth[i]) : ''},${u[i] ? 1 : 0}`,
+        `${fmtDeg(t.sun_elev_deg[i])},${earth ? fmtDeg(earth[i]) : ''},${u[i] ? 1 : 0}${extra.cells(i)}`,
     );
     if (rows.length === CHUNK_ROWS) {
       yield rows.join('\n') + '\n';
