@@ -57,7 +57,7 @@ export function scenarioCaption(s: Scenario, freqIndex: number, opts: { outlines
 
 /** Short identification of a plan: name, site and dates. */
 export function planLabel(s: Scenario): string {
-  return `"${s.name || 'untitled'}", ${bodyLabel(s.site.body)} ${latLabel(s.site.lat_deg)}, ${lonLabel(s.site.lon_deg)}, ${s.span.start.slice(0, 10)} to ${s.span.end.slice(0, 10)}`;
+  return `${s.name || 'untitled'} (${bodyLabel(s.site.body)} ${latLabel(s.site.lat_deg)}, ${lonLabel(s.site.lon_deg)}, ${s.span.start.slice(0, 10)} to ${s.span.end.slice(0, 10)})`;
 }
 
 /** What a difference map shows, naming both plans by their letters. */
@@ -65,8 +65,9 @@ export function diffHeadline(a: Scenario, b: Scenario, labelA = 'A', labelB = 'B
   return `Exposure of plan ${labelB} minus plan ${labelA}. ${labelA} (pinned): ${planLabel(a)}. ${labelB} (current): ${planLabel(b)}.`;
 }
 
-/** The PNG caption of a difference map: the headline, then each plan's scenario paragraph under its letter. */
+/** The PNG caption of a difference map: the headline, then each plan's scenario paragraph under its letter, then the note. */
 export function diffCaption(a: Scenario, b: Scenario, freqIndex: number, labelA = 'A', labelB = 'B'): string {
   const strip = (t: string) => t.replace(PLANNING_NOTE, '').trim();
-  return `${diffHeadline(a, b, labelA, labelB)} ${labelA}: ${strip(scenarioCaption(a, freqIndex))} ${labelB}: ${strip(scenarioCaption(b, freqIndex))} ${PLANNING_NOTE}`;
+  // One paragraph each (the PNG's text wrap starts a new line at each \n).
+  return `${diffHeadline(a, b, labelA, labelB)}\n${labelA}: ${strip(scenarioCaption(a, freqIndex))}\n${labelB}: ${strip(scenarioCaption(b, freqIndex))}\n${PLANNING_NOTE}`;
 }
