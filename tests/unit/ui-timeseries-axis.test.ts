@@ -75,6 +75,10 @@ describe('time ticks', () => {
     const long = timeTicks({ start: A.t0_ms, end: A.t0_ms + 730 * DAY }, 800);
     expect(long.stepMs).toBeGreaterThanOrEqual(DAY);
     expect(tickLabel(long.ticks[0], long.stepMs)).toMatch(/^\d{4}-\d\d-\d\d$/);
+    // Over months the ticks fall on the first of a month.
+    for (const t of long.ticks) expect(new Date(t).getUTCDate()).toBe(1);
+    expect(long.ticks.length).toBeGreaterThanOrEqual(4);
+    expect(long.ticks.length).toBeLessThanOrEqual(10);
     const short = timeTicks({ start: A.t0_ms, end: A.t0_ms + 12 * H }, 800);
     expect(short.stepMs).toBeLessThan(DAY);
     expect(short.ticks.length).toBeGreaterThanOrEqual(4);

@@ -113,14 +113,29 @@ const HOUR = 3_600_000;
 const DAY = 86_400_000;
 
 /** Tick times inside the range, at a step from hours to years chosen for about one tick per `pxPerTick` px. */
-export function timeTicks(r: TimeRange, w: number, pxPerTick = 95): { ticks: number[]; stepMs: number } {
+export function timeTicks(r: TimeRange, w: number, pxPerTick = 80): { ticks: number[]; stepMs: number } {
   const maxTicks = Math.max(2, Math.floor(w / pxPerTick));
   const span = r.end - r.start;
-  const steps = [1, 2, 3, 6, 12].map((h) => h * HOUR).concat([1, 2, 5, 7, 10, 15, 30, 61, 91, 182, 365, 730, 1826, 3652].map((d) => d * DAY));
-  const step = steps.find((s) => span / s <= maxTicks) ?? 3652 * DAY;
+  const steps = [1, 2, 3, 6, 12].map((h) => h * HOUR).concat([1, 2, 5, 7, 10, 15].map((d) => d * DAY));
+  const step = steps.find((s) => span / s <= maxTicks);
   const out: number[] = [];
-  for (let t = Math.ceil(r.start / step) * step; t <= r.end; t += step) out.push(t);
-  return { ticks: out, stepMs: step };
+  if (step !== undefined) {
+    for (let t = Math.ceil(r.start / step) * step; t <= r.end; t += step) out.push(t);
+    return { ticks: out, stepMs: step };
+  }
+  // A month or more: ticks on the first of a month (every 1, 2, 3, 6 months or 1, 2, 5, 10 years).
+  const MONTH = 30.436875 * DAY;
+  const months = [1, 2, 3, 6, 12, 24, 60, 120].find((m) => span / (m * MONTH) <= maxTicks) ?? 240;
+  const d0 = new Date(r.start);
+  let k = d0.getUTCFullYear() * 12 + d0.getUTCMonth();
+  if (Date.UTC(Math.floor(k / 12), k % 12, 1) < r.start) k++;
+  k = Math.ceil(k / months) * months;
+  for (;; k += months) {
+    const t = Date.UTC(Math.floor(k / 12), k % 12, 1);
+    if (t > r.end) break;
+    out.push(t);
+  }
+  return { ticks: out, stepMs: months * MONTH };
 }
 
 /** A tick label: the date for day steps and longer, day and hour:minute below a day. */
