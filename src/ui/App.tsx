@@ -219,9 +219,19 @@ export function App() {
           ))}
         </div>
       )}
-      <nav className="phone-tabs" role="tablist" aria-label="Sections of the page">
+      <nav className="phone-tabs" role="tablist" aria-label="Sections of the page"
+        onKeyDown={(e) => {
+          // tab pattern: the arrow keys move between the tabs
+          const k = PHONE_TABS.findIndex(([id]) => id === phoneTab);
+          const next = e.key === 'ArrowRight' ? k + 1 : e.key === 'ArrowLeft' ? k - 1 : null;
+          if (next === null) return;
+          e.preventDefault();
+          const id = PHONE_TABS[(next + PHONE_TABS.length) % PHONE_TABS.length][0];
+          setPhoneTab(id);
+          document.getElementById(`tab-${id}`)?.focus();
+        }}>
         {PHONE_TABS.map(([id, label]) => (
-          <button key={id} type="button" role="tab" id={`tab-${id}`} aria-selected={phoneTab === id}
+          <button key={id} type="button" role="tab" id={`tab-${id}`} aria-selected={phoneTab === id} tabIndex={phoneTab === id ? 0 : -1}
             className={phoneTab === id ? 'on' : undefined} onClick={() => { setPhoneTab(id); window.scrollTo({ top: 0 }); }}>
             {label}{id === 'scenario' && issues.size > 0 ? ` (${issues.size} ⚠)` : ''}
           </button>
