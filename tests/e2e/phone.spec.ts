@@ -59,6 +59,12 @@ test('at 420 px the form is reachable without scrolling past the figures, tables
   await expect(page.locator(MAP)).toBeVisible();
   const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
   expect(overflow).toBeLessThanOrEqual(1);
+  // The keyboard moves between the tabs too.
+  await page.getByRole('tab', { name: 'Map & globe' }).focus();
+  await page.keyboard.press('ArrowLeft');
+  await expect(page.getByRole('tab', { name: /Scenario/ })).toHaveAttribute('aria-selected', 'true');
+  await expect(page.getByRole('tab', { name: /Scenario/ })).toBeFocused();
+  await expect(page.getByLabel('Latitude', { exact: true })).toBeVisible();
 });
 
 test('at 1440 px there are no tabs: form, map and results show together, with the full run bar', async ({ page }) => {
