@@ -1,10 +1,13 @@
-// `swathe merge`: joins survey shards into the unsharded survey.csv (byte for
-// byte what one unsharded run writes).
+// `swathe merge`: joins survey shards into the unsharded survey.csv and its
+// survey.json (byte for byte what one unsharded run writes, apart from the
+// CSV's name in the JSON). Version-1 shards (metadata on a comment line) still merge.
 
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { mergeSurveyCsv } from '../core/surveyCsv';
+import { existsSync } from 'node:fs';
+import { basename } from 'node:path';
+import { mergeSurveyFiles, surveyMetaName } from '../core/surveyCsv';
 import { AtomicFileSet } from './atomicWrite';
 import { EXIT_OK, InputError, UsageError, oneLine } from './errors';
 import type { CliIo } from './io';
@@ -12,12 +15,15 @@ import type { CliIo } from './io';
 export const MERGE_HELP = `Usage: swathe merge DIR_OR_FILES... --out FILE [--quiet]
 
 Joins the shards of one survey (files written by swathe survey --shard I/N)
-into one file equal, byte for byte, to what an unsharded survey writes. A
-directory stands for the survey.shard-*-of-*.csv files in it. Every site must
-appear exactly once, and all files must come from the same survey.
+into one CSV equal, byte for byte, to what an unsharded survey writes, and
+the JSON file beside it (FILE with .json for .csv). Each CSV is read with the
+JSON file of the same name beside it, which must show the same survey for
+every shard. A directory stands for the survey.shard-*-of-*.csv files in it.
+Every site must appear exactly once. Files of the earlier format
+swathe.survey/1 (details on a "#" first line) merge into one such file.
 
 Options:
-  --out FILE    the merged file (required; written under a temporary name, then renamed)
+  --out FILE    the merged CSV (required; written with its JSON under temporary names, then renamed)
   --quiet       nothing on stdout
   -h, --help    show this help
 
@@ -95,26 +101,33 @@ export async function mergeCommand(argv: string[], io: CliIo): Promise<number> {
   }
 
   const files = inputs(positionals, io.cwd).filter((f) => f !== outPath);
-  const parts = files.map((f) => {
+  const read = (f: string) => {
     try {
-      return { name: f, text: readFileSync(f, 'utf8') };
+      if (statSync(f).size > MAX_FILE_BYTES) throw new InputError(`${oneLine(f, 200)}: a survey file must be at most ${MAX_FILE_BYTES} bytes`);
+      return readFileSync(f, 'utf8');
     } catch (e) {
       const code = (e as NodeJS.ErrnoException).code;
       if (code === 'EACCES' || code === 'EPERM') throw new InputError(`${oneLine(f, 200)}: not allowed to read it`);
       throw e;
     }
+  };
+  const outMeta = surveyMetaName(outPath);
+  const parts = files.map((f) => {
+    const m = surveyMetaName(f);
+    return { name: f, text: read(f), meta: m !== outMeta && existsSync(m) ? { name: m, text: read(m) } : null };
   });
-  const merged = mergeSurveyCsv(parts);
+  const merged = mergeSurveyFiles(parts, basename(outPath));
   if (!merged.ok) throw new InputError(merged.message);
 
   const set = new AtomicFileSet();
   try {
     set.write(outPath, [merged.text]);
+    if (merged.meta !== null) set.write(outMeta, [merged.meta]);
     set.commit();
   } catch (e) {
     set.abort();
     throw e;
   }
-  if (!values.quiet) io.out(`wrote ${oneLine(outPath, 300)}: ${merged.sites} sites from ${parts.length} file${parts.length === 1 ? '' : 's'}\n`);
+  if (!values.quiet) io.out(`wrote ${oneLine(outPath, 300)}${merged.meta !== null ? ` and ${oneLine(basename(outMeta), 300)}` : ''}: ${merged.sites} sites from ${parts.length} file${parts.length === 1 ? '' : 's'}\n`);
   return EXIT_OK;
 }

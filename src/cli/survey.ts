@@ -13,7 +13,7 @@ import {
   combineSurveyResults, shardSites, splitSites, surveyGrid, surveyStage, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG,
   type SurveyOptions, type SurveyResult, type SurveyShard,
 } from '../core/survey';
-import { surveyCsv } from '../core/surveyCsv';
+import { surveyCsv, surveyMeta, surveyMetaJson, surveyMetaName } from '../core/surveyCsv';
 import { AtomicFileSet } from './atomicWrite';
 import { EXIT_OK, InputError, UsageError, oneLine } from './errors';
 import type { CliIo } from './io';
@@ -249,7 +249,9 @@ export async function surveyCommand(argv: string[], io: CliIo): Promise<number> 
   process.once('SIGINT', onSignal);
   process.once('SIGTERM', onSignal);
   try {
-    files.write(join(outDir, surveyFileName(a.shard)), [surveyCsv(scenario, result, a.shard)]);
+    const csvName = surveyFileName(a.shard);
+    files.write(join(outDir, csvName), [surveyCsv(result)]);
+    files.write(join(outDir, surveyMetaName(csvName)), [surveyMetaJson(surveyMeta(scenario, result, csvName, a.shard))]);
     const written = files.commit();
     if (!a.quiet) {
       io.out(`wrote ${written.map((w) => oneLine(w, 300)).join(', ')}\n`);

@@ -69,7 +69,7 @@ import { maxPixradRad } from './healpix';
 
 const DEG = Math.PI / 180;
 
-export const SURVEY_FORMAT = 'swathe.survey/1';
+export const SURVEY_FORMAT = 'swathe.survey/2';
 export const SURVEY_MIN_STEP_DEG = 1;
 export const SURVEY_MAX_STEP_DEG = 15;
 /** Covered pixels at which the noise median is evaluated (see the header). */

@@ -1,25 +1,32 @@
-// The survey's CSV file (swathe.survey/1), its shards and their merge.
+// The survey's files (swathe.survey/2), their shards and their merge.
 //
-// Layout, one file:
-//   line 1  "# swathe.survey/1 ..." : body, grid, frequencies, span, sensitivity
-//           inputs and a fingerprint of the scenario (everything but the site),
-//           so shards of different runs are never merged together;
-//   line 2  only in a shard: "# shard I/N" (1-based), dropped by the merge;
-//   then    the column names and one row per site in grid-index order.
+// A survey is two files side by side:
+//   survey.csv   the column names on line 1, then one row per site in
+//                grid-index order (no comment lines: spreadsheets, pandas and
+//                astropy read it with default settings);
+//   survey.json  what the CSV holds: format, body, grid, span, nside,
+//                frequencies, sensitivity inputs, the column names, the shard
+//                (null when whole) and a fingerprint of the scenario
+//                (everything but the site), so shards of different runs are
+//                never merged together.
+// A shard is survey.shard-I-of-N.csv with survey.shard-I-of-N.json.
 // Columns (stable order): site, lat_deg, lon_deg, then sky_fraction_covered_<f>mhz
 // per frequency, usable_h, usable_h_beam_in_band_<f>mhz, noise_median_k_<f>mhz,
 // sun_down_h, earth_down_h, usable_h_zenith_in_band, usable_h_zenith_near_center,
 // usable_h_beam_near_center_<f>mhz (<f> as JavaScript prints the number, like
 // coverage.csv). Numbers are fixed-format: degrees 6 decimals, hours 3, sky
-// fractions 7, noise 6 significant digits; an empty cell is "none" (noise
-// where no pixel is covered: null in the plan's summary.json), "not computed"
-// (noise with --no-noise, stated on line 1) or "not applicable" (earth_down_h
-// on the Earth).
-// Merged shards are byte for byte the unsharded file: every row is formatted
-// from its own site's figures alone, and the header does not depend on the shard.
+// fractions 7, noise 6 significant digits; an empty cell means no value (noise
+// where no pixel is covered, noise not computed: sensitivity null in the
+// JSON, earth_down_h on the Earth).
+// Merged shards are byte for byte the unsharded CSV: every row is formatted
+// from its own site's figures alone. Version 1 (the same CSV after a "#
+// swathe.survey/1 ..." line, and "# shard I/N" in a shard) is still merged.
 
 import type { Scenario } from './types';
 import { SURVEY_FORMAT, type SurveyResult } from './survey';
+
+/** The first survey format: metadata on a leading comment line of the CSV (read by merge only). */
+export const SURVEY_FORMAT_V1 = 'swathe.survey/1';
 
 function fnv32(text: string, seed: number): number {
   let h = seed >>> 0;
@@ -51,16 +58,56 @@ export function surveyColumns(mhz: number[]): string[] {
   ];
 }
 
-/** The first line: what the file holds (independent of the shard). */
-export function surveyHeaderLine(s: Scenario, r: SurveyResult): string {
+/** survey.json: what the CSV beside it holds. */
+export interface SurveyMeta {
+  format: typeof SURVEY_FORMAT;
+  /** the CSV file this describes (its name only) */
+  csv: string;
+  name: string;
+  body: Scenario['site']['body'];
+  grid: { kind: 'cell-centres'; step_deg: number; nlat: number; nlon: number; sites: number };
+  span: { start: string; end: string };
+  nside: number;
+  frequencies_mhz: number[];
+  /** the radiometer inputs of noise_median_k; null when the noise was not computed */
+  sensitivity: { bandwidth_mhz: number; receiver_temp_k: number } | null;
+  scenario_fingerprint: string;
+  columns: string[];
+  /** this file's part of a sharded survey (1-based index), null for a whole survey */
+  shard: { index: number; count: number } | null;
+  note: string;
+}
+
+export const SURVEY_NOTE = 'Planning estimates from stated models and tolerances, not a substitute for a mission\'s own verified analysis.';
+
+/** The metadata of a survey result; `shard` is 0-based as in SurveyShard. */
+export function surveyMeta(s: Scenario, r: SurveyResult, csvName: string, shard?: { index: number; count: number }): SurveyMeta {
   const g = r.grid;
-  const sens = r.sensitivity ? `bandwidth_mhz=${r.sensitivity.bandwidth_mhz} receiver_temp_k=${r.sensitivity.receiver_temp_k}` : 'noise=not-computed';
-  return (
-    `# ${SURVEY_FORMAT} frequency_mhz=${r.frequencies.map((f) => f.mhz).join(';')} body=${r.body} ` +
-    `grid=cell-centres step_deg=${Number(g.lat_step_deg.toPrecision(12))} nlat=${g.nLat} nlon=${g.nLon} sites=${g.count} ` +
-    `span=${s.span.start}/${s.span.end} nside=${s.map.nside} ${sens} scenario=${scenarioFingerprint(s)} ` +
-    `name=${JSON.stringify(s.name)} (planning estimates from stated models)`
-  );
+  const mhz = r.frequencies.map((f) => f.mhz);
+  return {
+    format: SURVEY_FORMAT,
+    csv: csvName,
+    name: s.name,
+    body: r.body,
+    grid: { kind: 'cell-centres', step_deg: Number(g.lat_step_deg.toPrecision(12)), nlat: g.nLat, nlon: g.nLon, sites: g.count },
+    span: { start: s.span.start, end: s.span.end },
+    nside: s.map.nside,
+    frequencies_mhz: mhz,
+    sensitivity: r.sensitivity ? { bandwidth_mhz: r.sensitivity.bandwidth_mhz, receiver_temp_k: r.sensitivity.receiver_temp_k } : null,
+    scenario_fingerprint: scenarioFingerprint(s),
+    columns: surveyColumns(mhz),
+    shard: shard && shard.count > 1 ? { index: shard.index + 1, count: shard.count } : null,
+    note: SURVEY_NOTE,
+  };
+}
+
+export function surveyMetaJson(m: SurveyMeta): string {
+  return JSON.stringify(m, null, 2) + '\n';
+}
+
+/** The JSON file that goes beside a survey CSV: same name, ".json" for ".csv". */
+export function surveyMetaName(csvName: string): string {
+  return /\.csv$/i.test(csvName) ? csvName.replace(/\.csv$/i, '.json') : `${csvName}.json`;
 }
 
 const fx = (x: number, d: number) => (Number.isFinite(x) ? (Object.is(x, -0) ? 0 : x).toFixed(d) : '');
@@ -83,25 +130,37 @@ export function surveyRows(r: SurveyResult): string[] {
   return out;
 }
 
-/**
- * The whole file. `shard` (0-based index) adds the "# shard I/N" line; a
- * result holding all sites in order, without `shard`, is the unsharded file.
- */
-export function surveyCsv(s: Scenario, r: SurveyResult, shard?: { index: number; count: number }): string {
-  const head = [surveyHeaderLine(s, r) + '\n'];
-  if (shard && shard.count > 1) head.push(`# shard ${shard.index + 1}/${shard.count}\n`);
-  head.push(surveyColumns(r.frequencies.map((f) => f.mhz)).join(',') + '\n');
-  return head.join('') + surveyRows(r).join('');
+/** The CSV: the column names, then one row per held site. */
+export function surveyCsv(r: SurveyResult): string {
+  return surveyColumns(r.frequencies.map((f) => f.mhz)).join(',') + '\n' + surveyRows(r).join('');
 }
 
-export type MergeResult = { ok: true; text: string; sites: number } | { ok: false; message: string };
+export type MergeResult =
+  | { ok: true; text: string; meta: string | null; sites: number; version: 1 | 2 }
+  | { ok: false; message: string };
 
-interface ParsedPart { name: string; header: string; shard: [number, number] | null; columns: string; rows: string[] }
+/** One input of a merge: a survey CSV and, for version 2, the text of the JSON beside it (null when absent). */
+export interface MergeInput { name: string; text: string; meta: { name: string; text: string } | null }
 
-function parsePart(name: string, text: string): ParsedPart | string {
+interface ParsedPart {
+  name: string;
+  version: 1 | 2;
+  /** what must be equal in every part of one survey */
+  identity: string;
+  total: number;
+  shard: [number, number] | null;
+  columns: string;
+  rows: string[];
+  meta: SurveyMeta | null;
+}
+
+function splitLines(name: string, text: string): string[] | string {
   if (!text.endsWith('\n')) return `${name}: the file does not end with a newline (cut short?)`;
-  const lines = text.slice(0, -1).split('\n');
-  if (!lines[0] || !lines[0].startsWith(`# ${SURVEY_FORMAT} `)) return `${name}: not a ${SURVEY_FORMAT} file (its first line must start with "# ${SURVEY_FORMAT}")`;
+  return text.slice(0, -1).split('\n');
+}
+
+/** A version-1 file: "# swathe.survey/1 ..." line, optional "# shard I/N", columns, rows. */
+function parseV1(name: string, lines: string[]): ParsedPart | string {
   let k = 1;
   let shard: [number, number] | null = null;
   const m = /^# shard (\d+)\/(\d+)$/.exec(lines[1] ?? '');
@@ -112,30 +171,77 @@ function parsePart(name: string, text: string): ParsedPart | string {
   }
   const columns = lines[k];
   if (!columns || !columns.startsWith('site,')) return `${name}: line ${k + 1} must be the column names starting with "site,"`;
-  return { name, header: lines[0], shard, columns, rows: lines.slice(k + 1) };
+  const sm = / sites=(\d+) /.exec(lines[0]);
+  if (!sm) return `${name}: its first line does not state sites=`;
+  return { name, version: 1, identity: lines[0], total: Number(sm[1]), shard, columns, rows: lines.slice(k + 1), meta: null };
+}
+
+const isInt = (v: unknown, lo: number): v is number => typeof v === 'number' && Number.isInteger(v) && v >= lo;
+
+/** Reads survey.json far enough to merge safely: format, sites, columns and shard are checked. */
+function readMeta(name: string, text: string): SurveyMeta | string {
+  let v: unknown;
+  try {
+    v = JSON.parse(text);
+  } catch {
+    return `${name}: not valid JSON`;
+  }
+  const m = v as Partial<SurveyMeta> | null;
+  if (!m || typeof m !== 'object' || Array.isArray(m)) return `${name}: must be a ${SURVEY_FORMAT} JSON object`;
+  if (m.format !== SURVEY_FORMAT) return `${name}: format must be "${SURVEY_FORMAT}", got ${JSON.stringify(m.format ?? null)}`;
+  if (!m.grid || !isInt(m.grid.sites, 1)) return `${name}: grid.sites must be a whole number of sites`;
+  if (!Array.isArray(m.columns) || m.columns[0] !== 'site' || !m.columns.every((c) => typeof c === 'string')) return `${name}: columns must list the CSV's column names, starting with "site"`;
+  if (m.shard !== null && !(m.shard && isInt(m.shard.count, 1) && isInt(m.shard.index, 1) && m.shard.index <= m.shard.count)) {
+    return `${name}: shard must be null or { "index": I, "count": N } with 1 <= I <= N`;
+  }
+  return m as SurveyMeta;
+}
+
+function parseV2(input: MergeInput, lines: string[]): ParsedPart | string {
+  const { name } = input;
+  if (!input.meta) return `${name}: its metadata file ${surveyMetaName(name)} is missing (a ${SURVEY_FORMAT} CSV needs the JSON file written beside it)`;
+  const meta = readMeta(input.meta.name, input.meta.text);
+  if (typeof meta === 'string') return meta;
+  if (lines[0] !== meta.columns.join(',')) return `${name}: its first line must be the column names listed in ${input.meta.name}`;
+  const { csv: _csv, shard, ...same } = meta;
+  return {
+    name, version: 2, identity: JSON.stringify(same), total: meta.grid.sites,
+    shard: shard ? [shard.index, shard.count] : null, columns: lines[0], rows: lines.slice(1), meta,
+  };
+}
+
+function parsePart(input: MergeInput): ParsedPart | string {
+  const lines = splitLines(input.name, input.text);
+  if (typeof lines === 'string') return lines;
+  if ((lines[0] ?? '').startsWith(`# ${SURVEY_FORMAT_V1} `)) return parseV1(input.name, lines);
+  if ((lines[0] ?? '').startsWith('site,')) return parseV2(input, lines);
+  return `${input.name}: not a survey file (a ${SURVEY_FORMAT} CSV starts with the column names "site,..."; a ${SURVEY_FORMAT_V1} CSV with "# ${SURVEY_FORMAT_V1}")`;
 }
 
 /**
  * Joins shard files (or any set of survey files of one run) into the
- * unsharded file: same first line and columns required; every site of the
- * grid exactly once; rows copied unchanged, in site order.
+ * unsharded survey: same survey and columns required; every site of the grid
+ * exactly once; rows copied unchanged, in site order. Version-2 input gives
+ * the CSV and its JSON (naming `outName`); version-1 input gives a version-1 CSV.
  */
-export function mergeSurveyCsv(parts: { name: string; text: string }[]): MergeResult {
+export function mergeSurveyFiles(parts: MergeInput[], outName = 'survey.csv'): MergeResult {
   if (parts.length === 0) return { ok: false, message: 'no survey files to merge' };
   const parsed: ParsedPart[] = [];
   for (const p of parts) {
-    const r = parsePart(p.name, p.text);
+    const r = parsePart(p);
     if (typeof r === 'string') return { ok: false, message: r };
     parsed.push(r);
   }
   const first = parsed[0];
+  const fmt = (v: 1 | 2) => (v === 1 ? SURVEY_FORMAT_V1 : SURVEY_FORMAT);
   for (const p of parsed) {
-    if (p.header !== first.header) return { ok: false, message: `${p.name} is from a different survey than ${first.name} (their first lines differ)` };
+    if (p.version !== first.version) return { ok: false, message: `${p.name} is ${fmt(p.version)} but ${first.name} is ${fmt(first.version)}; merge files of one run` };
+    if (p.identity !== first.identity) {
+      return { ok: false, message: `${p.name} is from a different survey than ${first.name} (their ${p.version === 1 ? 'first lines' : 'metadata files'} differ)` };
+    }
     if (p.columns !== first.columns) return { ok: false, message: `${p.name} has different columns than ${first.name}` };
   }
-  const sm = / sites=(\d+) /.exec(first.header);
-  if (!sm) return { ok: false, message: `${first.name}: its first line does not state sites=` };
-  const total = Number(sm[1]);
+  const total = first.total;
   const rows: (string | undefined)[] = new Array(total);
   const from: string[] = new Array(total);
   for (const p of parsed) {
@@ -164,5 +270,17 @@ export function mergeSurveyCsv(parts: { name: string; text: string }[]): MergeRe
     }
     return { ok: false, message: `${missing} of ${total} sites are missing (the first is site ${firstMissing})${hint}` };
   }
-  return { ok: true, sites: total, text: `${first.header}\n${first.columns}\n${rows.join('\n')}\n` };
+  const body = `${first.columns}\n${rows.join('\n')}\n`;
+  if (first.version === 1) return { ok: true, version: 1, sites: total, meta: null, text: `${first.identity}\n${body}` };
+  const meta: SurveyMeta = { ...first.meta!, csv: outName, shard: null };
+  return { ok: true, version: 2, sites: total, text: body, meta: surveyMetaJson(orderMeta(meta)) };
+}
+
+/** The metadata with its keys in the written order (whatever order the file read had). */
+function orderMeta(m: SurveyMeta): SurveyMeta {
+  return {
+    format: m.format, csv: m.csv, name: m.name, body: m.body, grid: m.grid, span: m.span, nside: m.nside,
+    frequencies_mhz: m.frequencies_mhz, sensitivity: m.sensitivity, scenario_fingerprint: m.scenario_fingerprint,
+    columns: m.columns, shard: m.shard, note: m.note,
+  };
 }

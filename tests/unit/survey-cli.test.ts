@@ -48,9 +48,17 @@ describe('swathe survey', () => {
     expect(whole.code, whole.err).toBe(0);
     expect(whole.out).toMatch(/wrote .*survey\.csv/);
     const text = readFileSync(join(d, 'all', 'survey.csv'), 'utf8');
-    const lines = text.trimEnd().split('\n');
-    expect(lines[0]).toMatch(/^# swathe\.survey\/1 frequency_mhz=8;16 body=moon grid=cell-centres step_deg=15 nlat=12 nlon=24 sites=288 /);
-    expect(lines[0]).toContain('span=2031-03-01T00:00:00Z/2031-03-11T00:00:00Z');
+    const lines = ['(metadata in survey.json)', ...text.trimEnd().split('\n')];
+    // issue 9 item 10: the CSV starts with its header row; what it holds is in survey.json beside it
+    const meta = JSON.parse(readFileSync(join(d, 'all', 'survey.json'), 'utf8'));
+    expect(meta).toMatchObject({
+      format: 'swathe.survey/2', csv: 'survey.csv', name: 'survey cli fixture, invented', body: 'moon',
+      grid: { kind: 'cell-centres', step_deg: 15, nlat: 12, nlon: 24, sites: 288 },
+      span: { start: '2031-03-01T00:00:00Z', end: '2031-03-11T00:00:00Z' }, nside: 32, frequencies_mhz: [8, 16], shard: null,
+    });
+    expect(meta.scenario_fingerprint).toMatch(/^[0-9a-f]{16}$/);
+    expect(meta.columns).toEqual(surveyColumns([8, 16]));
+    expect(text.startsWith('#')).toBe(false);
     expect(lines[1]).toBe(surveyColumns([8, 16]).join(','));
     expect(lines[1].startsWith('site,lat_deg,lon_deg,sky_fraction_covered_8mhz,sky_fraction_covered_16mhz,usable_h,usable_h_beam_in_band_8mhz')).toBe(true);
     expect(lines.length).toBe(2 + 288);
@@ -72,12 +80,15 @@ describe('swathe survey', () => {
       expect(r.out).toBe('');
     }
     const parts = readdirSync(join(d, 'parts')).sort();
-    expect(parts).toEqual(['survey.shard-1-of-3.csv', 'survey.shard-2-of-3.csv', 'survey.shard-3-of-3.csv']);
-    expect(readFileSync(join(d, 'parts', parts[1]), 'utf8').split('\n')[1]).toBe('# shard 2/3');
+    expect(parts).toEqual(['survey.shard-1-of-3.csv', 'survey.shard-1-of-3.json', 'survey.shard-2-of-3.csv', 'survey.shard-2-of-3.json', 'survey.shard-3-of-3.csv', 'survey.shard-3-of-3.json']);
+    expect(readFileSync(join(d, 'parts', 'survey.shard-2-of-3.csv'), 'utf8').split('\n')[0]).toBe(lines[1]);
+    expect(JSON.parse(readFileSync(join(d, 'parts', 'survey.shard-2-of-3.json'), 'utf8')).shard).toEqual({ index: 2, count: 3 });
     const m = await cli(['merge', 'parts', '--out', 'merged.csv'], d);
     expect(m.code, m.err).toBe(0);
-    expect(m.out).toMatch(/288 sites from 3 files/);
+    expect(m.out).toMatch(/merged\.csv and merged\.json: 288 sites from 3 files/);
     expect(readFileSync(join(d, 'merged.csv'), 'utf8')).toBe(text);
+    // the merged JSON is the unsharded one but for the CSV's name
+    expect(readFileSync(join(d, 'merged.json'), 'utf8')).toBe(readFileSync(join(d, 'all', 'survey.json'), 'utf8').replace('"csv": "survey.csv"', '"csv": "merged.csv"'));
     // files given one by one, in any order, merge the same
     const m2 = await cli(['merge', ...[3, 1, 2].map((i) => join('parts', `survey.shard-${i}-of-3.csv`)), '--out', 'merged2.csv'], d);
     expect(m2.code, m2.err).toBe(0);
@@ -90,13 +101,29 @@ describe('swathe survey', () => {
       expect(r.err).toMatch(re);
       expect(r.err.trim().split('\n').length).toBe(1);
       expect(existsSync(join(d, 'x.csv'))).toBe(false);
+      expect(existsSync(join(d, 'x.json'))).toBe(false);
     };
-    await bad([join('parts', parts[0]), join('parts', parts[2])], /96 of 288 sites are missing \(the first is site 1\); missing shard 2 of 3/);
+    const shardCsv = (i: number) => join('parts', `survey.shard-${i}-of-3.csv`);
+    await bad([shardCsv(1), shardCsv(3)], /96 of 288 sites are missing \(the first is site 1\); missing shard 2 of 3/);
     await bad(['parts', join('all', 'survey.csv')], /site 0 appears twice/);
-    writeFileSync(join(d, 'other.csv'), text.replace('sites=288 ', 'sites=288 ').replace(/scenario=[0-9a-f]+/, 'scenario=0000000000000000'));
-    await bad([join('parts', parts[0]), 'other.csv'], /is from a different survey/);
+    // survey.json is checked: another scenario's shard is refused, and so is a CSV without its JSON
+    writeFileSync(join(d, 'other.csv'), readFileSync(join(d, shardCsv(2)), 'utf8'));
+    writeFileSync(join(d, 'other.json'), readFileSync(join(d, 'parts', 'survey.shard-2-of-3.json'), 'utf8').replace(/"scenario_fingerprint": "[0-9a-f]+"/, '"scenario_fingerprint": "0000000000000000"'));
+    await bad([shardCsv(1), 'other.csv', shardCsv(3)], /is from a different survey/);
+    writeFileSync(join(d, 'lone.csv'), readFileSync(join(d, shardCsv(2)), 'utf8'));
+    await bad([shardCsv(1), 'lone.csv', shardCsv(3)], /lone\.csv: its metadata file .*lone\.json is missing/);
     writeFileSync(join(d, 'plain.csv'), 'a,b\n1,2\n');
-    await bad(['plain.csv'], /not a swathe\.survey\/1 file/);
+    await bad(['plain.csv'], /not a survey file/);
+
+    // version 1 (details on a "#" first line, "# shard I/N" second) still merges, into a version-1 file
+    const v1Head = '# swathe.survey/1 frequency_mhz=8;16 body=moon grid=cell-centres step_deg=15 nlat=12 nlon=24 sites=288 span=x nside=32 scenario=0123456789abcdef name="v1" (planning estimates from stated models)';
+    mkdirSync(join(d, 'v1'));
+    for (const i of [1, 2, 3]) writeFileSync(join(d, 'v1', `survey.shard-${i}-of-3.csv`), `${v1Head}\n# shard ${i}/3\n${readFileSync(join(d, shardCsv(i)), 'utf8')}`);
+    const m1 = await cli(['merge', 'v1', '--out', 'merged-v1.csv'], d);
+    expect(m1.code, m1.err).toBe(0);
+    expect(readFileSync(join(d, 'merged-v1.csv'), 'utf8')).toBe(`${v1Head}\n${text}`);
+    expect(existsSync(join(d, 'merged-v1.json'))).toBe(false);
+    await bad([join('v1', 'survey.shard-1-of-3.csv'), shardCsv(2), shardCsv(3)], /is swathe\.survey\/2 but .* is swathe\.survey\/1/);
     mkdirSync(join(d, 'empty'));
     await bad(['empty'], /no survey\.shard-\*-of-\*\.csv files/);
     await bad(['nothing-here'], /no such file or directory/);
@@ -150,8 +177,8 @@ describe('swathe survey', () => {
     const two = spawnSync(process.execPath, [bin, 'survey', 's.json', '--step-deg', '15', '--frequency-mhz', '16', '--out', 'b', '--jobs', '2', '--progress'], { cwd: d, encoding: 'utf8' });
     expect(two.status, two.stderr).toBe(0);
     expect(readFileSync(join(d, 'b', 'survey.csv'), 'utf8')).toBe(readFileSync(join(d, 'a', 'survey.csv'), 'utf8'));
-    expect(readFileSync(join(d, 'a', 'survey.csv'), 'utf8').split('\n')[0]).toMatch(/frequency_mhz=16 /);
+    expect(JSON.parse(readFileSync(join(d, 'a', 'survey.json'), 'utf8')).frequencies_mhz).toEqual([16]);
     expect(two.stdout).toMatch(/288 of 288 sites/);
-    expect(readdirSync(join(d, 'b'))).toEqual(['survey.csv']); // no temporary file left
+    expect(readdirSync(join(d, 'b')).sort()).toEqual(['survey.csv', 'survey.json']); // no temporary file left
   }, 120_000);
 });

@@ -1,7 +1,7 @@
 import { useId, useMemo, useState } from 'react';
 import type { Scenario } from '../../core/types';
 import type { SurveyFigure, SurveyLayer } from '../../core/surveyLayer';
-import { surveyCsv } from '../../core/surveyCsv';
+import { surveyCsv, surveyMeta, surveyMetaJson, surveyMetaName } from '../../core/surveyCsv';
 import { FlatSitePicker } from '../globe/FlatSitePicker';
 import { cellCentre, cssRgb, nearestCell, NO_VALUE_RGB, valueColour } from '../globe/globeMath';
 import { downloadText, fileStem } from '../exports/download';
@@ -212,10 +212,17 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
               <input type="checkbox" checked={survey.showOnGlobe} onChange={(e) => survey.setShowOnGlobe(e.target.checked)} /> Show this layer on the globe
             </label>
             <button type="button"
-              onClick={() => downloadText(surveyCsv(done.scenario, done.run.result), `${fileStem(done.scenario.name)}.survey-${done.stepDeg}deg.csv`, 'text/csv')}>
+              onClick={() => downloadText(surveyCsv(done.run.result), `${fileStem(done.scenario.name)}.survey-${done.stepDeg}deg.csv`, 'text/csv')}>
               Download survey CSV
             </button>
-            <span className="muted">One row per site with every figure (all computed frequencies), the format of <code>swathe survey</code>.</span>
+            <button type="button"
+              onClick={() => {
+                const csvName = `${fileStem(done.scenario.name)}.survey-${done.stepDeg}deg.csv`;
+                downloadText(surveyMetaJson(surveyMeta(done.scenario, done.run.result, csvName)), surveyMetaName(csvName), 'application/json');
+              }}>
+              Download survey JSON
+            </button>
+            <span className="muted">The CSV has one row per site with every figure (all computed frequencies); the JSON beside it says what it holds (body, grid, span, frequencies). The format of <code>swathe survey</code>.</span>
           </div>
         </div>
       )}
