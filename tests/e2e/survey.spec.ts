@@ -7,7 +7,7 @@ import { surveyGrid } from '../../src/core/survey';
 // The site survey panel in Chromium: a coarse (15-degree) survey of a short
 // span runs in the survey workers, its layer is drawn on the globe and on the
 // flat map, a click on the flat map moves the site in the form, and the CSV
-// has the swathe.survey/1 header and one row per grid site.
+// starts with its column names (details in the JSON beside it) and has one row per grid site.
 
 let outside: string[] = [];
 test.beforeEach(async ({ context }) => {
@@ -91,12 +91,16 @@ test('a coarse survey runs, colours the globe and the flat map, picks a site and
   await expect(panel.getByTestId('survey-legend')).toContainText(' K');
   await expect(panel.getByTestId('survey-legend')).toContainText('no value');
 
-  // The CSV: the swathe.survey/1 header line, the column names, one row per site in grid order.
+  // The CSV (swathe.survey/2): the column names first, one row per site in grid order; survey.json says what it holds.
   const [dl] = await Promise.all([page.waitForEvent('download'), panel.getByRole('button', { name: 'Download survey CSV' }).click()]);
   expect(dl.suggestedFilename()).toMatch(/\.survey-15deg\.csv$/);
-  const lines = readFileSync(await dl.path(), 'utf8').trimEnd().split('\n');
-  expect(lines[0]).toMatch(/^# swathe\.survey\/1 frequency_mhz=8 body=moon grid=cell-centres step_deg=15 nlat=12 nlon=24 sites=288 /);
+  const lines = ['(metadata in the JSON)', ...readFileSync(await dl.path(), 'utf8').trimEnd().split('\n')];
   expect(lines[1]).toBe(surveyColumns([8]).join(','));
+  const [dj] = await Promise.all([page.waitForEvent('download'), panel.getByRole('button', { name: 'Download survey JSON' }).click()]);
+  expect(dj.suggestedFilename()).toMatch(/\.survey-15deg\.json$/);
+  const meta = JSON.parse(readFileSync(await dj.path(), 'utf8'));
+  expect(meta).toMatchObject({ format: 'swathe.survey/2', csv: dl.suggestedFilename(), body: 'moon', frequencies_mhz: [8],
+    grid: { kind: 'cell-centres', step_deg: 15, nlat: 12, nlon: 24, sites: 288 }, columns: surveyColumns([8]), shard: null });
   const rows = lines.slice(2).map((l) => l.split(','));
   expect(rows.length).toBe(grid.count);
   const col = (name: string) => surveyColumns([8]).indexOf(name);
