@@ -51,7 +51,7 @@ export const SCENARIO_DEFAULTS = {
   step_min: null,
   beam: { model: 'gaussian' as BeamModel, fwhm_factor: 1.15 },
   sun_max_elev_deg: 0,
-  /** 0 for Moon and Mars sites; null (no constraint) for an Earth site. */
+  /** 0 for a Moon site; null (no constraint) for Earth and Mars sites. */
   earth_max_elev_deg: 0,
   horizon_mask: null,
   nside: 128,
@@ -399,7 +399,8 @@ function parseUnsafe(input: unknown): ParseResult {
 
   // constraints
   let sunMax: number | null | undefined = SCENARIO_DEFAULTS.sun_max_elev_deg;
-  let earthMax: number | null | undefined = body === 'earth' ? null : SCENARIO_DEFAULTS.earth_max_elev_deg;
+  // by default only a Moon site keeps the Earth down (radio quiet); on Mars the Earth is a faint star
+  let earthMax: number | null | undefined = body === 'moon' ? SCENARIO_DEFAULTS.earth_max_elev_deg : null;
   let mask: HorizonPoint[] | null | undefined = SCENARIO_DEFAULTS.horizon_mask;
   let diffraction: Scenario['constraints']['diffraction'] | undefined;
   let ionosphere: Scenario['constraints']['ionosphere'] | undefined;

@@ -47,7 +47,7 @@ describe('swathe.scenario/1 defaults and normalisation', () => {
     });
   });
 
-  it('defaults earth_max_elev_deg to null for an Earth site (and to 0 on Mars)', () => {
+  it('defaults earth_max_elev_deg to null for an Earth site and a Mars site (issue 9 item 4: only the Moon defaults to 0)', () => {
     const e = minimal();
     e.site.body = 'earth';
     const r = parseScenario(e);
@@ -55,7 +55,7 @@ describe('swathe.scenario/1 defaults and normalisation', () => {
     const m = minimal();
     m.site.body = 'mars';
     const rm = parseScenario(m);
-    expect(rm.ok && rm.scenario.constraints.earth_max_elev_deg).toBe(0);
+    expect(rm.ok && rm.scenario.constraints.earth_max_elev_deg).toBe(null);
   });
 
   it('fills defaults field by field inside a partly given object', () => {

@@ -54,7 +54,7 @@ export function ScenarioPanel({ draft, issues, onChange }: {
         <legend>Site</legend>
         <Field label="Body" messages={issues.get('site.body')}>
           {(p) => (
-            <select {...p} value={draft.body} onChange={(e) => onChange({ body: e.target.value as BodyName })}>
+            <select {...p} value={draft.body} onChange={(e) => { const b = e.target.value as BodyName; onChange({ body: b, ...(b !== draft.body ? { earthOn: b === 'moon' } : {}) }); }}>
               <option value="moon">Moon</option>
               <option value="earth">Earth</option>
               <option value="mars">Mars</option>
