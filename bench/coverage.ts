@@ -108,7 +108,7 @@ function naiveMaps(s: Scenario): Float32Array[] {
   const track = computeTrack(s, { mode: 'exact' });
   const usable = usableMask(track, s.constraints);
   return s.telescope.frequencies_mhz.map((f) =>
-    naiveExposure(track, usable, beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam), s.map.nside),
+    naiveExposure(track, usable, beamProfileFor(f, s.telescope.aperture_m!, s.telescope.beam), s.map.nside),
   );
 }
 

@@ -1,4 +1,4 @@
-import type { BeamModel, BodyName, FieldIssue, HorizonPoint, Scenario } from './types';
+import type { BeamModel, BeamSpec, BodyName, FeedOffset, FieldIssue, HorizonPoint, PatternTable, PlanSegment, Pointing, Scenario } from './types';
 import { hasIonosphere, interplanetaryCutoffMHz } from './shielding/plasma';
 import { parseUtcMs } from './time';
 import { fwhmRad } from './beam';
@@ -42,6 +42,19 @@ export const SCENARIO_LIMITS = {
   nside: [8, 1024],
   galactic_band_deg: [0, 90],
   galactic_center_radius_deg: [0, 180],
+  /** Antenna (ARCHITECTURE.md section 6) */
+  beam_size_m: [0.01, 100_000],
+  dipole_height_m: [0, 10_000],
+  axis_azimuth_deg: [0, 360],
+  pointing_elevation_deg: [0, 90],
+  pointing_azimuth_deg: [0, 360],
+  feeds_count: [0, 16],
+  feed_offset_deg: [-60, 60],
+  plan_segments: [1, 64],
+  table_zenith_deg: [0, 180],
+  table_azimuth_deg: [0, 360],
+  table_gain_db: [-300, 100],
+  table_max_values: 400_000,
   /** Largest scenario text (JSON file, URL payload after decoding) accepted. */
   text_max_bytes: 2_000_000,
 } as const;
@@ -75,7 +88,7 @@ export class ScenarioError extends Error {
 }
 
 const BODIES: readonly BodyName[] = ['moon', 'earth', 'mars'];
-const BEAM_MODELS: readonly BeamModel[] = ['gaussian', 'airy'];
+const BEAM_MODELS: readonly BeamModel[] = ['gaussian', 'airy', 'elliptical_gaussian', 'dipole', 'pattern'];
 const RESERVED_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
 
 // ---------------------------------------------------------------- describing values
@@ -300,8 +313,8 @@ function horizonMask(iss: Issues, field: string, v: unknown): HorizonPoint[] | n
 const TOP_KEYS = ['format', 'name', 'site', 'span', 'telescope', 'constraints', 'map'] as const;
 const SITE_KEYS = ['body', 'lat_deg', 'lon_deg'] as const;
 const SPAN_KEYS = ['start', 'end', 'step_min'] as const;
-const TELESCOPE_KEYS = ['aperture_m', 'frequencies_mhz', 'beam', 'bandwidth_mhz', 'receiver_temp_k'] as const;
-const BEAM_KEYS = ['model', 'fwhm_factor'] as const;
+const TELESCOPE_KEYS = ['aperture_m', 'frequencies_mhz', 'beam', 'bandwidth_mhz', 'receiver_temp_k', 'pointing', 'feeds', 'pointing_plan'] as const;
+const BEAM_KEYS = ['model', 'fwhm_factor', 'length_m', 'width_m', 'height_m', 'axis_azimuth_deg', 'table'] as const;
 const CONSTRAINT_KEYS = ['sun_max_elev_deg', 'earth_max_elev_deg', 'horizon_mask', 'diffraction', 'ionosphere', 'sun_min_separation_deg'] as const;
 const DIFFRACTION_KEYS = ['rim_distance_m', 'min_attenuation_db'] as const;
 const IONOSPHERE_KEYS = ['day_mhz', 'night_mhz'] as const;
@@ -373,25 +386,37 @@ function parseUnsafe(input: unknown): ParseResult {
   // telescope
   let aperture: number | undefined;
   let freqs: number[] | undefined;
-  let model: BeamModel | undefined = SCENARIO_DEFAULTS.beam.model;
-  let factor: number | undefined = SCENARIO_DEFAULTS.beam.fwhm_factor;
+  let beamSpec: BeamSpec | undefined;
   let bandwidth: number | undefined;
   let receiverK: number | undefined;
+  let pointing: Pointing | undefined;
+  let feeds: FeedOffset[] | undefined;
+  let plan: PlanSegment[] | undefined;
+  let telOk = true;
   const tel = has(top, 'telescope')
     ? readObject(iss, 'telescope', top.telescope, TELESCOPE_KEYS)
     : (iss.add('telescope', 'telescope is required (an object with aperture_m, frequencies_mhz and optionally beam)'), null);
   if (tel) {
-    aperture = num(iss, 'telescope.aperture_m', tel.aperture_m, SCENARIO_LIMITS.aperture_m);
+    const rawModel = isPlainObject(tel.beam) && typeof tel.beam.model === 'string' ? tel.beam.model : 'gaussian';
+    const needsAperture = rawModel === 'gaussian' || rawModel === 'airy';
+    if (needsAperture || has(tel, 'aperture_m')) {
+      if (needsAperture && !has(tel, 'aperture_m')) iss.add('telescope.aperture_m', `telescope.aperture_m is required for the ${rawModel} beam (a number ${fmtRange(SCENARIO_LIMITS.aperture_m)})`);
+      else aperture = num(iss, 'telescope.aperture_m', tel.aperture_m, SCENARIO_LIMITS.aperture_m);
+    }
     freqs = frequencies(iss, 'telescope.frequencies_mhz', tel.frequencies_mhz);
-    const beam = optionalObject(iss, 'telescope.beam', tel.beam, BEAM_KEYS);
-    if (!beam) model = factor = undefined;
-    else {
-      if (has(beam, 'model')) model = oneOf(iss, 'telescope.beam.model', beam.model, BEAM_MODELS);
-      if (has(beam, 'fwhm_factor')) factor = num(iss, 'telescope.beam.fwhm_factor', beam.fwhm_factor, SCENARIO_LIMITS.fwhm_factor);
+    const before = iss.count;
+    beamSpec = beamSpecOf(iss, tel.beam, freqs);
+    if (aperture !== undefined && freqs !== undefined && beamSpec !== undefined && (beamSpec.model === 'gaussian' || beamSpec.model === 'airy')) {
+      beamWidthCheck(iss, aperture, freqs, beamSpec);
     }
-    if (aperture !== undefined && freqs !== undefined && model !== undefined && factor !== undefined) {
-      beamWidthCheck(iss, aperture, freqs, { model, fwhm_factor: factor });
+    if (has(tel, 'pointing')) pointing = pointingOf(iss, 'telescope.pointing', tel.pointing);
+    if (has(tel, 'feeds')) feeds = feedsOf(iss, tel.feeds);
+    if (has(tel, 'pointing_plan')) {
+      if (has(tel, 'pointing')) iss.add('telescope.pointing_plan', 'telescope.pointing_plan and telescope.pointing are both given: give one (the plan sets the boresight of every segment)');
+      else if (start !== undefined && end !== undefined) plan = planOf(iss, tel.pointing_plan, start, end);
     }
+    telOk = iss.count === before;
+    if (telOk && feeds && feeds.length) feedHorizonCheck(iss, feeds, plan ? plan : [pointing ?? { elevation_deg: 90, azimuth_deg: 0 }]);
     // optional; kept only when given (the engine states the defaults it used)
     if (has(tel, 'bandwidth_mhz')) bandwidth = num(iss, 'telescope.bandwidth_mhz', tel.bandwidth_mhz, SCENARIO_LIMITS.bandwidth_mhz);
     if (has(tel, 'receiver_temp_k')) receiverK = num(iss, 'telescope.receiver_temp_k', tel.receiver_temp_k, SCENARIO_LIMITS.receiver_temp_k);
@@ -448,7 +473,7 @@ function parseUnsafe(input: unknown): ParseResult {
     name,
     site: { body: body!, lat_deg: lat!, lon_deg: lon! },
     span: { start: span!.start as string, end: span!.end as string, step_min: step! },
-    telescope: { aperture_m: aperture!, frequencies_mhz: freqs!, beam: { model: model!, fwhm_factor: factor! } },
+    telescope: { ...(aperture !== undefined ? { aperture_m: aperture } : {}), frequencies_mhz: freqs!, beam: beamSpec! },
     constraints: { sun_max_elev_deg: sunMax!, earth_max_elev_deg: earthMax!, horizon_mask: mask! },
     map: { nside: nside!, galactic_band_deg: band!, galactic_center_radius_deg: radius! },
   };
@@ -457,6 +482,9 @@ function parseUnsafe(input: unknown): ParseResult {
   if (diffraction !== undefined) s.constraints.diffraction = diffraction;
   if (ionosphere !== undefined) s.constraints.ionosphere = ionosphere;
   if (sunSep !== undefined) s.constraints.sun_min_separation_deg = sunSep;
+  if (pointing !== undefined) s.telescope.pointing = pointing;
+  if (feeds !== undefined) s.telescope.feeds = feeds;
+  if (plan !== undefined) s.telescope.pointing_plan = plan;
   return { ok: true, scenario: s };
 }
 
@@ -515,6 +543,228 @@ function plasmaCutoffCheck(iss: Issues, freqs: number[], body: BodyName): void {
   });
 }
 
+// ---------------------------------------------------------------- antenna (ARCHITECTURE.md section 6)
+
+const MODEL_FIELDS: Record<BeamModel, readonly string[]> = {
+  gaussian: ['model', 'fwhm_factor'],
+  airy: ['model', 'fwhm_factor'],
+  elliptical_gaussian: ['model', 'fwhm_factor', 'length_m', 'width_m', 'axis_azimuth_deg'],
+  dipole: ['model', 'length_m', 'height_m', 'axis_azimuth_deg', 'fwhm_factor'],
+  pattern: ['model', 'table', 'fwhm_factor'],
+};
+
+function beamSpecOf(iss: Issues, v: unknown, freqs: number[] | undefined): BeamSpec | undefined {
+  const f = 'telescope.beam';
+  const beam = optionalObject(iss, f, v, BEAM_KEYS);
+  if (!beam) return undefined;
+  let model: BeamModel | undefined = SCENARIO_DEFAULTS.beam.model;
+  if (has(beam, 'model')) model = oneOf(iss, `${f}.model`, beam.model, BEAM_MODELS);
+  if (model === undefined) return undefined;
+  const before = iss.count;
+  for (const k of Object.keys(beam)) {
+    if (!MODEL_FIELDS[model].includes(k)) iss.add(`${f}.${k}`, `${f}.${k} does not belong to the ${model} model (its fields: ${MODEL_FIELDS[model].join(', ')})`);
+  }
+  let factor: number | undefined = SCENARIO_DEFAULTS.beam.fwhm_factor;
+  if (has(beam, 'fwhm_factor')) factor = num(iss, `${f}.fwhm_factor`, beam.fwhm_factor, SCENARIO_LIMITS.fwhm_factor);
+  const out: BeamSpec = { model, fwhm_factor: factor ?? 1.15 };
+  const L = SCENARIO_LIMITS;
+  if (model === 'elliptical_gaussian') {
+    out.length_m = num(iss, `${f}.length_m`, beam.length_m, L.beam_size_m);
+    out.width_m = num(iss, `${f}.width_m`, beam.width_m, L.beam_size_m);
+    out.axis_azimuth_deg = has(beam, 'axis_azimuth_deg') ? num(iss, `${f}.axis_azimuth_deg`, beam.axis_azimuth_deg, L.axis_azimuth_deg) : 0;
+    if (out.length_m !== undefined && out.width_m !== undefined && out.length_m < out.width_m) {
+      iss.add(`${f}.width_m`, `${f}.width_m must not exceed ${f}.length_m (${out.length_m} m; the long side is the length), got ${out.width_m}`);
+    }
+    if (freqs && out.width_m !== undefined && factor !== undefined) {
+      const fmin = Math.min(...freqs);
+      const w = (factor * (299.792458 / fmin)) / out.width_m / (Math.PI / 180);
+      if (w > L.fwhm_max_deg) {
+        iss.add(`${f}.width_m`, `${f}.width_m of ${out.width_m} m gives a beam ${sig3(w)} degrees wide (FWHM) at ${fmin} MHz; the model needs at most ${L.fwhm_max_deg} degrees: use a width of at least ${sig3((out.width_m * w) / L.fwhm_max_deg)} m`);
+      }
+    }
+  } else if (model === 'dipole') {
+    out.length_m = num(iss, `${f}.length_m`, beam.length_m, L.beam_size_m);
+    if (!has(beam, 'height_m') || beam.height_m === null) out.height_m = null;
+    else {
+      const h = beam.height_m;
+      if (typeof h !== 'number' || !Number.isFinite(h) || h < L.dipole_height_m[0] || h > L.dipole_height_m[1]) {
+        iss.add(`${f}.height_m`, `${f}.height_m must be null (no ground plane) or a number of metres ${fmtRange(L.dipole_height_m)}, got ${describeValue(h)}`);
+      } else out.height_m = h === 0 ? 0 : h;
+    }
+    if (out.height_m === 0) iss.add(`${f}.height_m`, `${f}.height_m must be above 0 over a perfect ground (a horizontal dipole on the ground radiates nothing), got 0`);
+    out.axis_azimuth_deg = has(beam, 'axis_azimuth_deg') ? num(iss, `${f}.axis_azimuth_deg`, beam.axis_azimuth_deg, L.axis_azimuth_deg) : 90;
+  } else if (model === 'pattern') {
+    out.table = patternTableOf(iss, `${f}.table`, beam.table, freqs);
+  }
+  return iss.count === before ? out : undefined;
+}
+
+function increasing(iss: Issues, field: string, v: unknown, range: readonly [number, number], count: readonly [number, number], what: string): number[] | undefined {
+  if (!Array.isArray(v) || v.length < count[0] || v.length > count[1]) {
+    iss.add(field, `${field} must be a list of ${count[0]} to ${count[1]} ${what}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  const out: number[] = [];
+  for (let i = 0; i < v.length; i++) {
+    const x = num(iss, `${field}[${i}]`, v[i], range);
+    if (x === undefined) return undefined;
+    if (i > 0 && !(x > out[i - 1])) {
+      iss.add(`${field}[${i}]`, `${field}[${i}] must be greater than ${field}[${i - 1}] (${out[i - 1]}): list ${what} in increasing order without repeats, got ${describeValue(x)}`);
+      return undefined;
+    }
+    out.push(x);
+  }
+  return out;
+}
+
+function patternTableOf(iss: Issues, f: string, v: unknown, freqs: number[] | undefined): PatternTable | undefined {
+  const t = readObject(iss, f, v, ['zenith_deg', 'azimuth_deg', 'frequencies_mhz', 'gain_db']);
+  if (!t) return undefined;
+  const L = SCENARIO_LIMITS;
+  const zen = increasing(iss, `${f}.zenith_deg`, t.zenith_deg, L.table_zenith_deg, [2, 1801], 'zenith angles in degrees');
+  const az = increasing(iss, `${f}.azimuth_deg`, t.azimuth_deg, [0, 359.999999], [1, 3600], 'azimuths in degrees (from 0, below 360)');
+  const fr = increasing(iss, `${f}.frequencies_mhz`, t.frequencies_mhz, L.frequency_mhz, [1, 16], 'frequencies in MHz');
+  if (zen && zen[0] !== 0) iss.add(`${f}.zenith_deg[0]`, `${f}.zenith_deg must start at 0 (the boresight), got ${zen[0]}`);
+  if (zen && zen[zen.length - 1] < 90) iss.add(`${f}.zenith_deg`, `${f}.zenith_deg must reach at least 90 (the whole front hemisphere), got a last value of ${zen[zen.length - 1]}`);
+  if (az && az[0] !== 0) iss.add(`${f}.azimuth_deg[0]`, `${f}.azimuth_deg must start at 0, got ${az[0]}`);
+  if (!zen || !az || !fr || iss.count > 0) return undefined;
+  if (zen.length * az.length * fr.length > L.table_max_values) {
+    iss.add(f, `${f} must hold at most ${L.table_max_values} gains, got ${zen.length * az.length * fr.length}`);
+    return undefined;
+  }
+  if (freqs) {
+    for (let i = 0; i < freqs.length; i++) {
+      if (freqs[i] < fr[0] || freqs[i] > fr[fr.length - 1]) {
+        iss.add(`telescope.frequencies_mhz[${i}]`, `telescope.frequencies_mhz[${i}] must lie within the pattern table's frequencies (${fr[0]} to ${fr[fr.length - 1]} MHz; the table is not extrapolated), got ${freqs[i]}`);
+      }
+    }
+  }
+  const g = t.gain_db;
+  const dims = `[${fr.length} frequencies][${zen.length} zenith angles][${az.length} azimuths]`;
+  if (!Array.isArray(g) || g.length !== fr.length) {
+    iss.add(`${f}.gain_db`, `${f}.gain_db must be a list ${dims} of gains in dB, got ${describeValue(g)}`);
+    return undefined;
+  }
+  const out: number[][][] = [];
+  for (let a = 0; a < g.length; a++) {
+    const ga = g[a];
+    if (!Array.isArray(ga) || ga.length !== zen.length) {
+      iss.add(`${f}.gain_db[${a}]`, `${f}.gain_db[${a}] must be a list of ${zen.length} rows (one per zenith angle), got ${describeValue(ga)}`);
+      return undefined;
+    }
+    const rows: number[][] = [];
+    for (let b = 0; b < ga.length; b++) {
+      const row = ga[b];
+      if (!Array.isArray(row) || row.length !== az.length) {
+        iss.add(`${f}.gain_db[${a}][${b}]`, `${f}.gain_db[${a}][${b}] must be a list of ${az.length} gains (one per azimuth; a hole in the table), got ${describeValue(row)}`);
+        return undefined;
+      }
+      const r: number[] = [];
+      for (let c = 0; c < row.length; c++) {
+        const x = num(iss, `${f}.gain_db[${a}][${b}][${c}]`, row[c], L.table_gain_db);
+        if (x === undefined) return undefined;
+        r.push(x);
+      }
+      rows.push(r);
+    }
+    out.push(rows);
+  }
+  return { zenith_deg: zen, azimuth_deg: az, frequencies_mhz: fr, gain_db: out };
+}
+
+function pointingOf(iss: Issues, f: string, v: unknown): Pointing | undefined {
+  const p = readObject(iss, f, v, ['elevation_deg', 'azimuth_deg']);
+  if (!p) return undefined;
+  const el = has(p, 'elevation_deg') ? num(iss, `${f}.elevation_deg`, p.elevation_deg, SCENARIO_LIMITS.pointing_elevation_deg) : 90;
+  if (el === 0) iss.add(`${f}.elevation_deg`, `${f}.elevation_deg must be above 0 (the horizon) and at most 90, got 0`);
+  const az = has(p, 'azimuth_deg') ? num(iss, `${f}.azimuth_deg`, p.azimuth_deg, SCENARIO_LIMITS.pointing_azimuth_deg) : 0;
+  if (el === undefined || az === undefined || el === 0) return undefined;
+  return { elevation_deg: el, azimuth_deg: az === 360 ? 0 : az };
+}
+
+function feedsOf(iss: Issues, v: unknown): FeedOffset[] | undefined {
+  const f = 'telescope.feeds';
+  const [lo, hi] = SCENARIO_LIMITS.feeds_count;
+  if (!Array.isArray(v) || v.length < lo || v.length > hi) {
+    iss.add(f, `${f} must be a list of ${lo} to ${hi} extra beams ({ "x_offset_deg", "y_offset_deg" }), got ${describeValue(v)}`);
+    return undefined;
+  }
+  const out: FeedOffset[] = [];
+  for (let i = 0; i < v.length; i++) {
+    const o = readObject(iss, `${f}[${i}]`, v[i], ['x_offset_deg', 'y_offset_deg']);
+    if (!o) return undefined;
+    const x = num(iss, `${f}[${i}].x_offset_deg`, o.x_offset_deg, SCENARIO_LIMITS.feed_offset_deg);
+    const y = num(iss, `${f}[${i}].y_offset_deg`, o.y_offset_deg, SCENARIO_LIMITS.feed_offset_deg);
+    if (x === undefined || y === undefined) return undefined;
+    out.push({ x_offset_deg: x, y_offset_deg: y });
+  }
+  return out;
+}
+
+function planOf(iss: Issues, v: unknown, startMs: number, endMs: number): PlanSegment[] | undefined {
+  const f = 'telescope.pointing_plan';
+  const [lo, hi] = SCENARIO_LIMITS.plan_segments;
+  if (!Array.isArray(v) || v.length < lo || v.length > hi) {
+    iss.add(f, `${f} must be a list of ${lo} to ${hi} segments ({ "start", "end", "elevation_deg", "azimuth_deg" }) covering the span, got ${describeValue(v)}`);
+    return undefined;
+  }
+  const out: PlanSegment[] = [];
+  let prevEnd = startMs;
+  let prevEndText = 'span.start';
+  for (let i = 0; i < v.length; i++) {
+    const w = `${f}[${i}]`;
+    const o = readObject(iss, w, v[i], ['start', 'end', 'elevation_deg', 'azimuth_deg']);
+    if (!o) return undefined;
+    const a = utc(iss, `${w}.start`, o.start);
+    const b = utc(iss, `${w}.end`, o.end);
+    const p = pointingOf(iss, w, { elevation_deg: o.elevation_deg, azimuth_deg: o.azimuth_deg });
+    if (a === undefined || b === undefined || p === undefined) return undefined;
+    if (a !== prevEnd) {
+      iss.add(`${w}.start`, `${w}.start must equal ${prevEndText} (${new Date(prevEnd).toISOString().replace('.000Z', 'Z')}): segments must follow each other without ${a > prevEnd ? 'a gap' : 'overlapping'}, got ${describeValue(o.start)}`);
+      return undefined;
+    }
+    if (!(b > a)) {
+      iss.add(`${w}.end`, `${w}.end must be after ${w}.start (${o.start as string}), got ${describeValue(o.end)}`);
+      return undefined;
+    }
+    out.push({ start: o.start as string, end: o.end as string, elevation_deg: p.elevation_deg, azimuth_deg: p.azimuth_deg });
+    prevEnd = b;
+    prevEndText = `${w}.end`;
+  }
+  if (prevEnd !== endMs) {
+    iss.add(`${f}[${v.length - 1}].end`, `${f}[${v.length - 1}].end must equal span.end (the plan must cover the whole span), got ${describeValue(out[out.length - 1].end)}`);
+    return undefined;
+  }
+  return out;
+}
+
+/** Every extra feed's boresight must stay above the horizon for every pointing it is used with. */
+function feedHorizonCheck(iss: Issues, feeds: FeedOffset[], pointings: Pointing[]): void {
+  for (let i = 0; i < feeds.length; i++) {
+    for (const p of pointings) {
+      const z = feedElevationDeg(p, feeds[i]);
+      if (!(z > 0)) {
+        iss.add(`telescope.feeds[${i}]`, `telescope.feeds[${i}] (offsets ${feeds[i].x_offset_deg}, ${feeds[i].y_offset_deg} degrees) points ${sig3(-z)} degrees below the horizon with the boresight at elevation ${p.elevation_deg}, azimuth ${p.azimuth_deg}: each beam must point above the horizon`);
+        break;
+      }
+    }
+  }
+}
+
+/** Elevation (degrees) of a feed's boresight for a pointing (same geometry as antenna/pointing.ts, written out to keep this module standalone). */
+export function feedElevationDeg(p: Pointing, fo: FeedOffset): number {
+  const D = Math.PI / 180;
+  const x = Math.tan(fo.x_offset_deg * D), y = Math.tan(fo.y_offset_deg * D);
+  const r = 1 / Math.sqrt(x * x + y * y + 1);
+  // antenna frame columns in local coordinates: rotation about h = (-cos A, sin A, 0) by t = 90 - E
+  const A = p.azimuth_deg * D, t = (90 - p.elevation_deg) * D;
+  const kx = -Math.cos(A), ky = Math.sin(A);
+  const c = Math.cos(t), s = Math.sin(t);
+  // third row of the rotation (local z of each antenna axis)
+  const zx = -ky * s, zy = kx * s, zz = c;
+  return Math.asin(Math.max(-1, Math.min(1, (zx * x + zy * y + zz) * r))) / D;
+}
+
 function nullableNum(iss: Issues, field: string, v: unknown, range: readonly [number, number]): number | null | undefined {
   if (v === null) return null;
   if (typeof v !== 'number' || !Number.isFinite(v) || v < range[0] || v > range[1]) {
@@ -553,7 +803,7 @@ function frequencies(iss: Issues, field: string, v: unknown): number[] | undefin
   return bad ? undefined : out;
 }
 
-function beamWidthCheck(iss: Issues, aperture: number, freqs: number[], beam: { model: BeamModel; fwhm_factor: number }): void {
+function beamWidthCheck(iss: Issues, aperture: number, freqs: number[], beam: BeamSpec): void {
   const fmin = Math.min(...freqs);
   const fwhmDeg = (fwhmRad(fmin, aperture, beam) * 180) / Math.PI;
   const maxDeg = SCENARIO_LIMITS.fwhm_max_deg;
@@ -653,11 +903,16 @@ export function canonical(s: Scenario): Scenario {
     site: { body: s.site.body, lat_deg: s.site.lat_deg, lon_deg: s.site.lon_deg },
     span: { start: s.span.start, end: s.span.end, step_min: s.span.step_min },
     telescope: {
-      aperture_m: s.telescope.aperture_m,
+      ...(s.telescope.aperture_m !== undefined ? { aperture_m: s.telescope.aperture_m } : {}),
       frequencies_mhz: [...s.telescope.frequencies_mhz],
-      beam: { model: s.telescope.beam.model, fwhm_factor: s.telescope.beam.fwhm_factor },
+      beam: canonicalBeam(s.telescope.beam),
       ...(s.telescope.bandwidth_mhz !== undefined ? { bandwidth_mhz: s.telescope.bandwidth_mhz } : {}),
       ...(s.telescope.receiver_temp_k !== undefined ? { receiver_temp_k: s.telescope.receiver_temp_k } : {}),
+      ...(s.telescope.pointing !== undefined ? { pointing: { elevation_deg: s.telescope.pointing.elevation_deg, azimuth_deg: s.telescope.pointing.azimuth_deg } } : {}),
+      ...(s.telescope.feeds !== undefined ? { feeds: s.telescope.feeds.map((f) => ({ x_offset_deg: f.x_offset_deg, y_offset_deg: f.y_offset_deg })) } : {}),
+      ...(s.telescope.pointing_plan !== undefined
+        ? { pointing_plan: s.telescope.pointing_plan.map((g) => ({ start: g.start, end: g.end, elevation_deg: g.elevation_deg, azimuth_deg: g.azimuth_deg })) }
+        : {}),
     },
     constraints: {
       sun_max_elev_deg: s.constraints.sun_max_elev_deg,
@@ -669,6 +924,21 @@ export function canonical(s: Scenario): Scenario {
     },
     map: { nside: s.map.nside, galactic_band_deg: s.map.galactic_band_deg, galactic_center_radius_deg: s.map.galactic_center_radius_deg },
   };
+}
+
+function canonicalBeam(b: BeamSpec): BeamSpec {
+  const out: BeamSpec = { model: b.model, fwhm_factor: b.fwhm_factor };
+  if (b.length_m !== undefined) out.length_m = b.length_m;
+  if (b.width_m !== undefined) out.width_m = b.width_m;
+  if (b.height_m !== undefined) out.height_m = b.height_m;
+  if (b.axis_azimuth_deg !== undefined) out.axis_azimuth_deg = b.axis_azimuth_deg;
+  if (b.table !== undefined) {
+    out.table = {
+      zenith_deg: [...b.table.zenith_deg], azimuth_deg: [...b.table.azimuth_deg], frequencies_mhz: [...b.table.frequencies_mhz],
+      gain_db: b.table.gain_db.map((f) => f.map((r) => [...r])),
+    };
+  }
+  return out;
 }
 
 // ---------------------------------------------------------------- URL codec

@@ -54,6 +54,7 @@
 // sample), while the Sun/Earth constraints make the usable samples, and so the
 // hit map and the covered sky, differ from site to site anyway.
 
+import { isPlainZenithDish } from './antenna/pointing';
 import type { BodyName, Scenario, Stage, Track } from './types';
 import { drain } from './types';
 import { BODIES, KM_PER_AU, siteGeometry } from './bodies';
@@ -486,7 +487,10 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   const noiseTarget = opts.noiseSamplePixels ?? NOISE_SAMPLE_PIXELS;
   if (!(Number.isInteger(noiseTarget) && noiseTarget >= 1)) throw new RangeError(`noiseSamplePixels must be an integer >= 1, got ${noiseTarget}`);
   const held = sites.length;
-  const allBeams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam));
+  if (!isPlainZenithDish(s)) {
+    throw new RangeError('the site survey covers the zenith-pointing circular dish (gaussian or airy beam at the zenith, one feed, no plan); plan this antenna at one site with swathe plan');
+  }
+  const allBeams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m!, s.telescope.beam));
   const hitNside = hitNsideFor(Math.min(...allBeams.map((b) => b.fwhmRad)));
   const beams = which.map((m) => allBeams[m]);
   const halfFwhmDeg = beams.map((b) => b.fwhmRad / DEG / 2);

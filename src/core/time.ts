@@ -1,5 +1,6 @@
 import type { BodyName, Scenario } from './types';
 import { fwhmRad } from './beam';
+import { narrowestWidthRad } from './antenna/models';
 
 // Sidereal rotation periods in days (rate at which a site's zenith sweeps the sky).
 // Moon: sidereal month 27.321661 d (IAU/ARCHITECTURE §4); Earth: 0.99726968 d
@@ -34,9 +35,15 @@ export function parseUtcMs(s: string): number | null {
  * is the body's sidereal rate times cos(latitude).
  */
 export function autoStepMin(s: Scenario): number {
-  const fwhmMin = Math.min(...s.telescope.frequencies_mhz.map((f) => fwhmRad(f, s.telescope.aperture_m, s.telescope.beam)));
+  const b = s.telescope.beam;
+  const fwhmMin = (b.model === 'gaussian' || b.model === 'airy') && s.telescope.aperture_m !== undefined
+    ? Math.min(...s.telescope.frequencies_mhz.map((f) => fwhmRad(f, s.telescope.aperture_m!, b)))
+    : narrowestWidthRad(s.telescope.frequencies_mhz, b, s.telescope.aperture_m);
   const rateRadPerMin = (2 * Math.PI) / (SIDEREAL_PERIOD_D[s.site.body] * 1440);
-  const speed = rateRadPerMin * Math.cos((s.site.lat_deg * Math.PI) / 180);
+  // a tilted or offset beam may sweep faster than the zenith: take the largest speed (the equator's)
+  const t = s.telescope;
+  const tilted = (t.pointing !== undefined && t.pointing.elevation_deg !== 90) || !!t.feeds?.length || !!t.pointing_plan?.length;
+  const speed = rateRadPerMin * (tilted ? 1 : Math.cos((s.site.lat_deg * Math.PI) / 180));
   const step = speed > 0 ? fwhmMin / 8 / speed : MAX_STEP_MIN;
   return Math.min(MAX_STEP_MIN, step);
 }

@@ -3,7 +3,42 @@
 // typed arrays; nothing here touches the DOM or global state.
 
 export type BodyName = 'moon' | 'earth' | 'mars';
-export type BeamModel = 'gaussian' | 'airy';
+export type BeamModel = 'gaussian' | 'airy' | 'elliptical_gaussian' | 'dipole' | 'pattern';
+
+/** A measured or simulated power pattern (antenna frame): gain_db[f][zenith][azimuth]. */
+export interface PatternTable {
+  zenith_deg: number[];
+  azimuth_deg: number[];
+  frequencies_mhz: number[];
+  gain_db: number[][][];
+}
+
+/**
+ * `telescope.beam` (ARCHITECTURE.md section 6). `fwhm_factor` is always present
+ * (default 1.15); the other fields belong to their model and are present only for it.
+ */
+export interface BeamSpec {
+  model: BeamModel;
+  fwhm_factor: number;
+  /** elliptical_gaussian: aperture length and width (m); dipole: tip-to-tip length (m) */
+  length_m?: number;
+  width_m?: number;
+  /** dipole: height over a perfectly conducting ground (m); null = no ground plane */
+  height_m?: number | null;
+  /** elliptical_gaussian (default 0), dipole (default 90): the long side / the wire, degrees in the antenna frame */
+  axis_azimuth_deg?: number;
+  /** pattern */
+  table?: PatternTable;
+}
+
+/** Boresight of the antenna frame's z axis in the local horizon frame. */
+export interface Pointing { elevation_deg: number; azimuth_deg: number }
+
+/** An extra beam of a multi-beam feed: tangent-plane offsets from the main boresight along the antenna frame's x and y. */
+export interface FeedOffset { x_offset_deg: number; y_offset_deg: number }
+
+/** One time segment of a pointing plan (segments tile the span). */
+export interface PlanSegment { start: string; end: string; elevation_deg: number; azimuth_deg: number }
 
 /** A validated, normalised `swathe.scenario/1` (defaults filled in). */
 export interface Scenario {
@@ -12,9 +47,16 @@ export interface Scenario {
   site: { body: BodyName; lat_deg: number; lon_deg: number };
   span: { start: string; end: string; step_min: number | null };
   telescope: {
-    aperture_m: number;
+    /** required for the gaussian and airy models; absent for the others */
+    aperture_m?: number;
     frequencies_mhz: number[];
-    beam: { model: BeamModel; fwhm_factor: number };
+    beam: BeamSpec;
+    /** optional: fixed boresight (default zenith); kept only when given */
+    pointing?: Pointing;
+    /** optional: extra beams of a multi-beam feed */
+    feeds?: FeedOffset[];
+    /** optional: boresight per time segment (overrides pointing) */
+    pointing_plan?: PlanSegment[];
     /** optional (added): channel bandwidth for the noise maps, MHz; default in stats.ts SENSITIVITY_DEFAULTS */
     bandwidth_mhz?: number;
     /** optional (added): receiver noise temperature, K */
@@ -113,6 +155,19 @@ export interface FrequencySummary {
   usable_hours_geometric?: number;
   /** added: why this frequency loses time to a plasma cut-off, in words; absent when it does not */
   usable_note?: string;
+  /** figures of the free-space beam (main feed): principal-plane FWHMs, solid angle, directivity */
+  beam?: { fwhm_major_deg: number; fwhm_minor_deg: number; solid_angle_sr: number; directivity_dbi: number };
+}
+
+/** Figures of one pointing-plan segment. */
+export interface SegmentSummary {
+  index: number;
+  start: string;
+  end: string;
+  elevation_deg: number;
+  azimuth_deg: number;
+  usable_hours: number;
+  frequencies: { mhz: number; sky_fraction_covered: number; exposure_max_h: number }[];
 }
 
 /** added: the sensitivity inputs and model a run used (the radiometer equation). */
@@ -143,6 +198,8 @@ export interface Summary {
   frequencies: FrequencySummary[];
   /** added */
   sensitivity?: SensitivitySummary;
+  /** per pointing-plan segment (only with a plan) */
+  segments?: SegmentSummary[];
 }
 
 /** Everything a plan run produces; the UI and the exports read only this. */

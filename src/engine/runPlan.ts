@@ -19,6 +19,9 @@ import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, 
 import { frequencySummary, SENSITIVITY_DEFAULTS, sensitivityFor, SKY_MODEL_LABEL, SKY_MODEL_NOTE } from '../core/stats';
 import { stepMin } from '../core/time';
 import { macrotask } from './macrotask';
+import { antennaBeam, beamFiguresFor, beamWidthRad, horizonFrames, isPlainZenithDish, sampleSegments, segmentsOf } from '../core/antenna';
+import { bandHours, coarsenBins, coveredFromBins, exposureFromBins, exposureNsideFor, frameBinsStage, COVER_BIN_PER_WIDTH, type FrameBins } from '../core/antenna/exposure';
+import type { SegmentSummary } from '../core/types';
 
 export type ProgressFn = (stage: string, fraction: number) => void;
 
@@ -156,10 +159,27 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   const usable = prevInt && sameBytes(prev!.usable, anyFreq) ? prev!.usable : anyFreq;
   d.report('usable', 1);
 
-  // Hit maps: one per distinct usable mask, fine enough for the narrowest beam using it
-  const beams = freqsMhz.map((f) => beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam));
-  const groups = distinctMasks(usableByFreq);
+  const nside = s.map.nside;
+  const maps: Float32Array[] = [];
+  const noiseMaps: Float32Array[] = [];
+  const coveredMasks: Uint8Array[] = [];
+  const freqs: FrequencySummary[] = [];
+  const sens = {
+    bandwidth_mhz: s.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz,
+    receiver_temp_k: s.telescope.receiver_temp_k ?? SENSITIVITY_DEFAULTS.receiver_temp_k,
+  };
+  const nf = s.telescope.frequencies_mhz.length;
+  let segmentSummaries: SegmentSummary[] | undefined;
+  const figuresOf = (mhz: number) => {
+    const g = beamFiguresFor(s, mhz);
+    return { fwhm_major_deg: g.fwhm_major_deg, fwhm_minor_deg: g.fwhm_minor_deg, solid_angle_sr: g.solid_angle_sr, directivity_dbi: g.directivity_dbi };
+  };
+
   const hits: Internals['hits'] = [];
+  if (isPlainZenithDish(s)) {
+  // Hit maps: one per distinct usable mask, fine enough for the narrowest beam using it
+  const beams = freqsMhz.map((f) => beamProfileFor(f, s.telescope.aperture_m!, s.telescope.beam));
+  const groups = distinctMasks(usableByFreq);
   d.report('hits', 0);
   for (let g = 0; g < groups.unique.length; g++) {
     const mask = groups.unique[g];
@@ -172,15 +192,6 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   d.report('hits', 1);
 
   // Exposure and covered sky per frequency
-  const nside = s.map.nside;
-  const maps: Float32Array[] = [];
-  const noiseMaps: Float32Array[] = [];
-  const coveredMasks: Uint8Array[] = [];
-  const freqs: FrequencySummary[] = [];
-  const sens = {
-    bandwidth_mhz: s.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz,
-    receiver_temp_k: s.telescope.receiver_temp_k ?? SENSITIVITY_DEFAULTS.receiver_temp_k,
-  };
   const nf = beams.length;
   d.report('exposure', 0);
   for (let k = 0; k < nf; k++) {
@@ -202,11 +213,82 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
       noise_median_k: noise.noise_median_k,
       usable_hours: usableHoursAt(track, limits.fminMHz, mhz),
       usable_hours_geometric: usableHoursAt(track, limits.fminGeometricMHz, mhz),
+      beam: figuresOf(mhz),
       ...(note ? { usable_note: note } : {}),
     });
     await d.maybeTurn('exposure', hi);
   }
   d.report('exposure', 1);
+  } else {
+    // Any other antenna (antenna/exposure.ts): time binned by the local frame on the sky, per plan segment
+    const frames = horizonFrames(track, s.site.lon_deg);
+    const segs = segmentsOf(s);
+    const segOf = sampleSegments(track, segs);
+    const acc = s.telescope.frequencies_mhz.map(() => new Float64Array(12 * nside * nside));
+    const cov = s.telescope.frequencies_mhz.map(() => new Uint8Array(12 * nside * nside));
+    const inBand = new Float64Array(nf), nearCentre = new Float64Array(nf);
+    const perSeg: { maps: Float64Array[]; covered: Uint8Array[]; hours: number }[] = [];
+    d.report('hits', 0);
+    for (let g = 0; g < segs.length; g++) {
+      const beams = s.telescope.frequencies_mhz.map((f) => antennaBeam(s, f, g));
+      const segMaps: Float64Array[] = [], segCov: Uint8Array[] = [];
+      let segHours = 0;
+      for (let k = 0; k < nf; k++) {
+        const uk = usableByFreq[k];
+        const pick = (i: number) => uk[i] === 1 && segOf[i] === g;
+        const lo = (g + k / nf) / segs.length, hi = (g + (k + 1) / nf) / segs.length;
+        const bins: FrameBins = await d.run('hits', frameBinsStage(track, frames, pick, exposureNsideFor(beams[k], COVER_BIN_PER_WIDTH)), lo, lo);
+        segHours = Math.max(segHours, bins.totalHours);
+        const m = await d.run('exposure', exposureFromBins(coarsenBins(bins, exposureNsideFor(beams[k])), beams[k], nside), lo, (lo + hi) / 2);
+        const c = await d.run('exposure', coveredFromBins(bins, beams[k], nside), (lo + hi) / 2, hi);
+        for (let q = 0; q < m.length; q++) { acc[k][q] += m[q]; cov[k][q] |= c[q]; }
+        const bh = bandHours(track, frames, pick, beams[k], s.map.galactic_band_deg, s.map.galactic_center_radius_deg);
+        inBand[k] += bh.inBand; nearCentre[k] += bh.nearCentre;
+        segMaps.push(m); segCov.push(c);
+        await d.maybeTurn('exposure', hi);
+      }
+      perSeg.push({ maps: segMaps, covered: segCov, hours: segHours });
+    }
+    d.report('hits', 1);
+    for (let k = 0; k < nf; k++) {
+      const map = Float32Array.from(acc[k]);
+      const covered = cov[k];
+      maps.push(map);
+      coveredMasks.push(covered);
+      const mhz = s.telescope.frequencies_mhz[k];
+      const noise = sensitivityFor(mhz, map, covered, sens);
+      noiseMaps.push(noise.noise);
+      freqs.push({
+        ...frequencySummary({ mhz, fwhmRad: beamWidthRad(s, mhz), exposure: map, covered, track, usable: usableByFreq[k], map: s.map }),
+        usable_hours_beam_in_band: inBand[k],
+        usable_hours_beam_near_center: nearCentre[k],
+        t_sky_k: noise.t_sky_k,
+        t_sys_k: noise.t_sys_k,
+        noise_median_k: noise.noise_median_k,
+        usable_hours: usableHoursAt(track, limits.fminMHz, mhz),
+        usable_hours_geometric: usableHoursAt(track, limits.fminGeometricMHz, mhz),
+        ...(ionosphereNote(s, mhz) ? { usable_note: ionosphereNote(s, mhz)! } : {}),
+        beam: figuresOf(mhz),
+      });
+    }
+    if (s.telescope.pointing_plan?.length) {
+      segmentSummaries = segs.map((g, i) => ({
+        index: i,
+        start: s.telescope.pointing_plan![i].start,
+        end: s.telescope.pointing_plan![i].end,
+        elevation_deg: g.pointing.elevation_deg,
+        azimuth_deg: g.pointing.azimuth_deg,
+        usable_hours: perSeg[i].hours,
+        frequencies: s.telescope.frequencies_mhz.map((mhz, k) => {
+          let c = 0, mx = 0;
+          const m = perSeg[i].maps[k], cv = perSeg[i].covered[k];
+          for (let q = 0; q < m.length; q++) { c += cv[q]; if (m[q] > mx) mx = m[q]; }
+          return { mhz, sky_fraction_covered: c / m.length, exposure_max_h: mx };
+        }),
+      }));
+    }
+    d.report('exposure', 1);
+  }
 
   d.report('summary', 0);
   const summary: Summary = {
@@ -219,6 +301,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     galactic: galacticSummary(track, usable, s.map),
     frequencies: freqs,
     sensitivity: { ...sens, sky_model: SKY_MODEL_LABEL, note: SKY_MODEL_NOTE },
+    ...(segmentSummaries ? { segments: segmentSummaries } : {}),
   };
   d.check();
   d.report('summary', 1);

@@ -1,5 +1,19 @@
 import type { Scenario } from '../core/types';
-import { fwhmRad } from '../core/beam';
+import { beamWidthRad } from '../core/antenna';
+
+function beamCaption(s: Scenario): string {
+  const t = s.telescope, b = t.beam;
+  const tilt = t.pointing_plan?.length ? `, ${t.pointing_plan.length}-segment pointing plan`
+    : t.pointing && t.pointing.elevation_deg !== 90 ? `, boresight at elevation ${t.pointing.elevation_deg}°, azimuth ${t.pointing.azimuth_deg}°` : '';
+  const feeds = t.feeds?.length ? `, ${t.feeds.length + 1} beams` : '';
+  let m: string;
+  if (b.model === 'airy') m = `Aperture ${t.aperture_m} m, Airy beam`;
+  else if (b.model === 'gaussian') m = `Aperture ${t.aperture_m} m, Gaussian beam, FWHM = ${b.fwhm_factor} λ/D`;
+  else if (b.model === 'elliptical_gaussian') m = `${b.length_m} m × ${b.width_m} m aperture, elliptical Gaussian beam, long side at ${b.axis_azimuth_deg}°`;
+  else if (b.model === 'dipole') m = `${b.length_m} m dipole along ${b.axis_azimuth_deg}°, ${b.height_m === null ? 'no ground plane' : `${b.height_m} m over a perfect ground`}`;
+  else m = `measured pattern table (${b.table!.frequencies_mhz.length} frequencies)`;
+  return m + tilt + feeds;
+}
 import { outlineColourName } from './skymap/coverageOutline';
 
 // Text that states what a figure is: used under the exported PNG and in the page.
@@ -27,7 +41,7 @@ function elevLimit(v: number | null, what: string): string {
 }
 
 function fwhmDegAt(s: Scenario, f: number): number {
-  return (fwhmRad(f, s.telescope.aperture_m, s.telescope.beam) * 180) / Math.PI;
+  return (beamWidthRad(s, f) * 180) / Math.PI;
 }
 
 /**
@@ -36,8 +50,7 @@ function fwhmDegAt(s: Scenario, f: number): number {
  */
 export function scenarioCaption(s: Scenario, freqIndex: number, opts: { outlines?: boolean } = {}): string {
   const f = s.telescope.frequencies_mhz[freqIndex];
-  const beam =
-    s.telescope.beam.model === 'airy' ? 'Airy beam' : `Gaussian beam, FWHM = ${s.telescope.beam.fwhm_factor} λ/D`;
+  const beam = beamCaption(s);
   const mask = s.constraints.horizon_mask ? `horizon mask of ${s.constraints.horizon_mask.length} points` : 'flat horizon';
   const freqText = opts.outlines
     ? `half-power outlines: ${s.telescope.frequencies_mhz.map((g, i) => `${g} MHz ${outlineColourName(i)} (FWHM ${fwhmDegAt(s, g).toFixed(2)}°)`).join(', ')}`
@@ -45,7 +58,7 @@ export function scenarioCaption(s: Scenario, freqIndex: number, opts: { outlines
   const parts = [
     `Site: ${bodyLabel(s.site.body)} ${latLabel(s.site.lat_deg)}, ${lonLabel(s.site.lon_deg)}, zenith-pointing drift scan.`,
     `Span: ${s.span.start} to ${s.span.end} (UTC), step ${s.span.step_min === null ? 'automatic' : s.span.step_min + ' min'}.`,
-    `Aperture ${s.telescope.aperture_m} m, ${beam}; ${freqText}.`,
+    `${beam}; ${freqText}.`,
     `Usable time: ${elevLimit(s.constraints.sun_max_elev_deg, 'Sun')}; ${
       s.site.body === 'earth' ? 'Earth: n/a' : elevLimit(s.constraints.earth_max_elev_deg, 'Earth')
     }; ${mask}.`,

@@ -86,9 +86,9 @@ describe.skipIf(!hasHealpy)('a whole plan vs healpy', () => {
       }
       expect(pts.length).toBeGreaterThan(1000);
       for (let k = 0; k < 2; k++) {
-        const b = makeBeam(s.telescope.frequencies_mhz[k], s.telescope.aperture_m, s.telescope.beam);
+        const b = makeBeam(s.telescope.frequencies_mhz[k], s.telescope.aperture_m!, s.telescope.beam);
         const out = spawnSync(PY, [script], {
-          input: JSON.stringify({ nside: 64, fwhm_rad: b.fwhmRad, cutoff_rad: b.cutoffRad, model, lambda_over_d: b.wavelengthM / s.telescope.aperture_m, points: pts }),
+          input: JSON.stringify({ nside: 64, fwhm_rad: b.fwhmRad, cutoff_rad: b.cutoffRad, model, lambda_over_d: b.wavelengthM / s.telescope.aperture_m!, points: pts }),
           encoding: 'utf8',
           maxBuffer: 1 << 28,
         });

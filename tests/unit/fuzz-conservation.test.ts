@@ -59,7 +59,7 @@ describe('exposure conservation on random scenarios (fast-check)', () => {
         s.telescope.frequencies_mhz.forEach((f, i) => {
           let sum = 0;
           for (const v of r.maps[i]) sum += v;
-          const omega = makeBeam(f, s.telescope.aperture_m, s.telescope.beam).solidAngleSr;
+          const omega = makeBeam(f, s.telescope.aperture_m!, s.telescope.beam).solidAngleSr;
           const want = r.summary.hours.usable * omega;
           if (want === 0) expect(sum).toBe(0);
           else expect(Math.abs((sum * area) / want - 1)).toBeLessThan(0.01);

@@ -108,7 +108,7 @@ describe('the survey covered-sky search gives the plan mask', () => {
     const s: Scenario = { ...DEMO_SCENARIO, site: { body: 'moon', lat_deg: -31, lon_deg: 160 }, span: { start: '2031-03-01T00:00:00Z', end: '2031-04-15T00:00:00Z', step_min: null } };
     const track = computeTrack(s);
     const usable = usableMask(track, s.constraints);
-    const beams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m, s.telescope.beam));
+    const beams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m!, s.telescope.beam));
     const hit = drain(hitMapStage(track, usable, { nside: hitNsideFor(Math.min(...beams.map((b) => b.fwhmRad))) }));
     expect(hit.pix.length).toBeGreaterThan(1000);
     for (const nside of [64, 128, 512]) {

@@ -184,7 +184,7 @@ export function coverageFits(result: PlanResult): Uint8Array {
     ...stringCards('SITEBODY', s.site.body.toUpperCase(), 'body the telescope stands on'),
     realCard('SITELAT', s.site.lat_deg, '[deg] site latitude'),
     realCard('SITELON', s.site.lon_deg, '[deg] site longitude, east positive'),
-    realCard('APERTURE', s.telescope.aperture_m, '[m] aperture diameter'),
+    ...(s.telescope.aperture_m !== undefined ? [realCard('APERTURE', s.telescope.aperture_m, '[m] aperture diameter')] : []),
     ...stringCards('BEAM', s.telescope.beam.model.toUpperCase(), 'beam model'),
     intCard('NFREQ', nf, 'number of frequencies'),
   );

@@ -1,5 +1,5 @@
 import type { PlanResult } from '../../core/types';
-import { fwhmRad } from '../../core/beam';
+import { beamWidthRad } from '../../core/antenna';
 import type { Stage } from '../../core/types';
 import { coveredMask, coveredStage, hitMap, hitMapStage, hitNsideFor } from '../../core/coverage';
 
@@ -63,7 +63,7 @@ const pendingCache = new WeakMap<PlanResult, Promise<Uint8Array[]>>();
 
 function beamWidths(result: PlanResult): number[] {
   const s = result.scenario;
-  return s.telescope.frequencies_mhz.map((f) => fwhmRad(f, s.telescope.aperture_m, s.telescope.beam));
+  return s.telescope.frequencies_mhz.map((f) => beamWidthRad(s, f));
 }
 
 /** Covered masks if already computed for this result, else null. */

@@ -1,5 +1,5 @@
 import type { PlanResult } from '../../core/types';
-import { fwhmRad } from '../../core/beam';
+import { beamWidthRad } from '../../core/antenna';
 import {
   colourise,
   divergingLut,
@@ -257,7 +257,7 @@ export function renderRaster(
 export function beamRadiusDeg(result: PlanResult, freqIndex: number): number {
   const s = result.scenario;
   const f = s.telescope.frequencies_mhz[freqIndex];
-  return f === undefined ? 0 : (fwhmRad(f, s.telescope.aperture_m, s.telescope.beam) * 90) / Math.PI;
+  return f === undefined ? 0 : (beamWidthRad(s, f) * 90) / Math.PI;
 }
 
 /** The vector layer (overlays and graticule labels) at CSS size; ctx may carry a device-pixel transform. */

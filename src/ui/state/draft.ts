@@ -71,7 +71,7 @@ export function scenarioToDraft(s: Scenario): Draft {
     start: s.span.start,
     end: s.span.end,
     step: s.span.step_min === null ? '' : num(s.span.step_min),
-    aperture: num(s.telescope.aperture_m),
+    aperture: s.telescope.aperture_m === undefined ? '' : num(s.telescope.aperture_m),
     beamModel: s.telescope.beam.model,
     fwhmFactor: num(s.telescope.beam.fwhm_factor),
     freqs: s.telescope.frequencies_mhz.map((f) => ({ id: newId(), mhz: num(f), z: zText(f), source: 'mhz' as const })),
