@@ -31,3 +31,25 @@ describe('summaryJson', () => {
     expect(Object.keys(JSON.parse(summaryJson(extended))).at(-1)).toBe('extra_field');
   });
 });
+
+describe('summaryJson hours precision (issue 9 item 9)', () => {
+  it('rounds every hour figure to 6 decimals: no binary floating-point tails', () => {
+    const s = syntheticResult().summary;
+    const tailed = {
+      ...s,
+      hours: { ...s.hours, total: 17544.000000239466, usable: 2081.1234567891 },
+      galactic: { ...s.galactic, usable_hours_zenith_in_band: 12.3000000000001 },
+      frequencies: s.frequencies.map((f) => ({ ...f, exposure_max_h: 0.1 + 0.2, usable_hours_beam_in_band: 7.0000004999 })),
+    };
+    const text = summaryJson(tailed);
+    expect(text).toContain('"total": 17544,');
+    expect(text).toContain('"usable": 2081.123457');
+    expect(text).toContain('"usable_hours_zenith_in_band": 12.3,');
+    expect(text).toContain('"exposure_max_h": 0.3,');
+    expect(text).toContain('"usable_hours_beam_in_band": 7,');
+    // no hour figure in the file has more than 6 decimals
+    for (const m of text.matchAll(/"(\w*(?:hours|_h)\w*|total|sun_down|earth_down|usable)": (-?[\d.e+-]+)/g)) {
+      expect((m[2].split('.')[1] ?? '').length, m[0]).toBeLessThanOrEqual(6);
+    }
+  });
+});

@@ -24,12 +24,26 @@ function ordered(o: object, known: string[]): Record<string, unknown> {
   return out;
 }
 
+/** Hours in summary.json are rounded to this many decimals (1e-6 h = 3.6 ms): no binary floating-point tails. */
+export const SUMMARY_HOURS_DECIMALS = 6;
+
+const isHoursKey = (k: string) => /(^|_)hours(_|$)|_h$|_h_/.test(k);
+
+/** Rounds the hour figures of one object (keys named for hours, or every value when `all`). */
+function roundHours(o: Record<string, unknown>, all = false): Record<string, unknown> {
+  for (const k of Object.keys(o)) {
+    const v = o[k];
+    if (typeof v === 'number' && Number.isFinite(v) && (all || isHoursKey(k))) o[k] = Number(v.toFixed(SUMMARY_HOURS_DECIMALS));
+  }
+  return o;
+}
+
 export function summaryJson(summary: Summary): string {
   const top = ordered(summary, TOP);
   top.scenario = canonical(summary.scenario);
-  top.hours = ordered(summary.hours, HOURS);
+  top.hours = roundHours(ordered(summary.hours, HOURS), true);
   top.zenith = ordered(summary.zenith, ZENITH);
-  top.galactic = ordered(summary.galactic, GALACTIC);
-  top.frequencies = summary.frequencies.map((f) => ordered(f, FREQ));
+  top.galactic = roundHours(ordered(summary.galactic, GALACTIC));
+  top.frequencies = summary.frequencies.map((f) => roundHours(ordered(f, FREQ)));
   return JSON.stringify(top, null, 2) + '\n';
 }
