@@ -78,3 +78,13 @@ describe('antenna API', () => {
     });
   });
 });
+
+describe('the app form keeps antenna fields it does not edit', () => {
+  it('a dipole scenario survives scenario -> draft -> scenario unchanged', async () => {
+    const { scenarioToDraft, draftToCandidate } = await import('../../src/ui/state/draft');
+    const s = (parseScenario({ ...base, telescope: { ...base.telescope, pointing: { elevation_deg: 70, azimuth_deg: 180 }, feeds: [{ x_offset_deg: 5, y_offset_deg: 0 }] } }) as { scenario: Scenario }).scenario;
+    const back = parseScenario(draftToCandidate(scenarioToDraft(s)));
+    expect(back.ok).toBe(true);
+    if (back.ok) expect(back.scenario).toEqual(s);
+  });
+});

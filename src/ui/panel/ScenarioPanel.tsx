@@ -103,6 +103,9 @@ export function ScenarioPanel({ draft, issues, onChange }: {
               <select {...p} value={draft.beamModel} onChange={(e) => onChange({ beamModel: e.target.value as BeamModel })}>
                 <option value="gaussian">Gaussian</option>
                 <option value="airy">Airy (uniform disc)</option>
+                {draft.antenna?.beam.model === 'elliptical_gaussian' && <option value="elliptical_gaussian">Elliptical Gaussian (from the loaded file)</option>}
+                {draft.antenna?.beam.model === 'dipole' && <option value="dipole">Dipole (from the loaded file)</option>}
+                {draft.antenna?.beam.model === 'pattern' && <option value="pattern">Pattern table (from the loaded file)</option>}
               </select>
             )}
           </Field>

@@ -24,6 +24,8 @@ export interface Draft {
   step: string; // '' = automatic
   aperture: string;
   beamModel: BeamModel;
+  /** the antenna fields the form does not edit yet (model parameters, pointing, feeds, plan), kept as loaded so nothing is lost */
+  antenna?: Pick<Scenario['telescope'], 'beam' | 'pointing' | 'feeds' | 'pointing_plan'>;
   fwhmFactor: string;
   freqs: FreqRow[];
   sunOn: boolean;
@@ -73,6 +75,9 @@ export function scenarioToDraft(s: Scenario): Draft {
     step: s.span.step_min === null ? '' : num(s.span.step_min),
     aperture: s.telescope.aperture_m === undefined ? '' : num(s.telescope.aperture_m),
     beamModel: s.telescope.beam.model,
+    ...(s.telescope.beam.model !== 'gaussian' && s.telescope.beam.model !== 'airy' || s.telescope.pointing || s.telescope.feeds || s.telescope.pointing_plan
+      ? { antenna: { beam: s.telescope.beam, pointing: s.telescope.pointing, feeds: s.telescope.feeds, pointing_plan: s.telescope.pointing_plan } }
+      : {}),
     fwhmFactor: num(s.telescope.beam.fwhm_factor),
     freqs: s.telescope.frequencies_mhz.map((f) => ({ id: newId(), mhz: num(f), z: zText(f), source: 'mhz' as const })),
     sunOn: s.constraints.sun_max_elev_deg !== null,
@@ -109,9 +114,14 @@ export function draftToCandidate(d: Draft): unknown {
     site: { body: d.body, lat_deg: numOrText(d.lat), lon_deg: numOrText(d.lon) },
     span: { start: d.start.trim(), end: d.end.trim(), step_min: d.step.trim() === '' ? null : numOrText(d.step) },
     telescope: {
-      aperture_m: numOrText(d.aperture),
+      ...(d.aperture.trim() === '' && d.beamModel !== 'gaussian' && d.beamModel !== 'airy' ? {} : { aperture_m: numOrText(d.aperture) }),
       frequencies_mhz: d.freqs.map(freqRowMhz),
-      beam: { model: d.beamModel, fwhm_factor: numOrText(d.fwhmFactor) },
+      beam: d.antenna && d.antenna.beam.model === d.beamModel
+        ? { ...d.antenna.beam, fwhm_factor: numOrText(d.fwhmFactor) }
+        : { model: d.beamModel, fwhm_factor: numOrText(d.fwhmFactor) },
+      ...(d.antenna?.pointing ? { pointing: d.antenna.pointing } : {}),
+      ...(d.antenna?.feeds ? { feeds: d.antenna.feeds } : {}),
+      ...(d.antenna?.pointing_plan ? { pointing_plan: d.antenna.pointing_plan } : {}),
       ...((d.bandwidth ?? '').trim() === '' ? {} : { bandwidth_mhz: numOrText(d.bandwidth) }),
       ...((d.receiverK ?? '').trim() === '' ? {} : { receiver_temp_k: numOrText(d.receiverK) }),
     },
