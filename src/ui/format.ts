@@ -41,3 +41,12 @@ export function duration(seconds: number): string {
   if (seconds < 90) return `${Math.round(seconds)} s`;
   return `${Math.round(seconds / 60)} min`;
 }
+
+/** Kelvin with an SI prefix so the digits stay readable: 318.6 µK rather than 3.186e-4 K. */
+export function kelvin(v: number, digits = 3): string {
+  if (!Number.isFinite(v)) return '—';
+  const a = Math.abs(v);
+  if (v === 0 || a >= 1) return `${Number(v.toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 10 })} K`;
+  const [scale, unit] = a >= 1e-3 ? [1e3, 'mK'] : a >= 1e-6 ? [1e6, 'µK'] : [1e9, 'nK'];
+  return `${Number((v * scale).toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 10 })} ${unit}`;
+}

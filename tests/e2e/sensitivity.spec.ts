@@ -62,7 +62,9 @@ test('bandwidth and receiver temperature: validated, used, and the noise column 
     // The row carries the full number; the cell shows 4 significant digits of it.
     const got = Number(await row.getAttribute('data-noise-median'));
     expect(got).toBeCloseTo(want!, 10);
-    await expect(page.getByTestId(`noise-cell-${i}`)).toHaveText(Number(want!.toPrecision(4)).toLocaleString('en-US', { maximumFractionDigits: 10 }));
+    // SI prefixes (issue 9 item 9): K at 1 K and above, mK from 1e-3 K, µK from 1e-6 K
+    const [k, unit] = want! >= 1 ? [1, 'K'] : want! >= 1e-3 ? [1e3, 'mK'] : want! >= 1e-6 ? [1e6, 'µK'] : [1e9, 'nK'];
+    await expect(page.getByTestId(`noise-cell-${i}`)).toHaveText(`${Number((want! * k).toPrecision(4)).toLocaleString('en-US', { maximumFractionDigits: 10 })} ${unit}`);
   }
   // The radiometer equation (Dicke 1946) scales as T_sys / sqrt(bandwidth): against the defaults (1 MHz, 100 K) the ratio is below.
   const cliDefault = cliSummary(SHORT);

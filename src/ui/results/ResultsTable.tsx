@@ -1,6 +1,6 @@
 import { useId } from 'react';
 import type { PlanResult } from '../../core/types';
-import { fixed, hours, percent, sig, wavelength } from '../format';
+import { fixed, hours, percent, sig, wavelength, kelvin } from '../format';
 import { ScrollCue } from '../ScrollCue';
 
 // One row per frequency, straight from PlanResult.summary (the same figures as summary.json).
@@ -30,7 +30,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
             <th scope="col" title={`Usable hours with the beam within ${s.galactic.center_radius_deg}° of the galactic centre`}>
               Beam near galactic centre (&lt; {s.galactic.center_radius_deg}°)
             </th>
-            <th scope="col" title="Median over the covered sky of the radiometer noise σ_T (model stated under the table)">Noise (K)</th>
+            <th scope="col" title="Median over the covered sky of the radiometer noise σ_T (model stated under the table)">Noise</th>
           </tr>
         </thead>
         <tbody>
@@ -58,7 +58,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               <td>{hours(f.exposure_max_h)} h</td>
               <td>{hours(f.usable_hours_beam_in_band)} h</td>
               <td>{hours(f.usable_hours_beam_near_center)} h</td>
-              <td data-testid={`noise-cell-${i}`}>{f.noise_median_k !== undefined && Number.isFinite(f.noise_median_k) ? sig(f.noise_median_k, 4) : '—'}</td>
+              <td data-testid={`noise-cell-${i}`}>{f.noise_median_k !== undefined && Number.isFinite(f.noise_median_k) ? kelvin(f.noise_median_k, 4) : '—'}</td>
             </tr>
           ))}
         </tbody>
