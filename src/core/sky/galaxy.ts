@@ -1,0 +1,155 @@
+// The `galaxy` sky: an analytic model of the Galaxy's diffuse radio emission
+// at low frequencies, integrated along each line of sight.
+//
+//  - Synchrotron emissivity of a thin disk and a thick disk (the two-component
+//    picture of the 408 MHz sky by Beuermann, Kanbach & Berkhuijsen 1985, A&A
+//    153, 17; the scale lengths below are this model's own round values),
+//    a power law in frequency with brightness index GALAXY_PARAMS.beta.
+//  - Free-free absorption and emission by the warm ionised gas: optical depth
+//    per step tau = 3.28e-7 (T_e / 1e4 K)^-1.35 (nu / GHz)^-2.1 (EM / pc cm^-6)
+//    (Condon & Ransom, Essential Radio Astronomy, 2016, ch. 4, eq. 4.60), with
+//    EM = C n_e^2 ds; n_e from the smooth thick disk of the NE2001 model
+//    (Cordes & Lazio 2002, astro-ph/0207156: n1 h1 = 0.033 kpc cm^-3,
+//    h1 = 0.97 kpc, A1 = 17.5 kpc, sech^2 in z; values from memory) and a
+//    clumping factor C = <n_e^2>/<n_e>^2 fitted below. T_e = 8000 K (common
+//    practice for the warm ionised medium).
+//  - The isotropic extragalactic background of ARCADE 2 (Fixsen et al. 2011,
+//    ApJ 734, 5): T = 1.26 K (nu / 1 GHz)^-2.60 (measured from 22 MHz up;
+//    extrapolated below), seen through the whole Galaxy's absorption.
+//  - The CMB (2.7255 K, Fixsen 2009), likewise absorbed.
+//
+// Radiative transfer along the ray, step by step from the observer outwards:
+//   T += (eps ds f(dtau) + T_e (1 - e^-dtau)) e^-tau,   tau += dtau,
+// with f(x) = (1 - e^-x)/x (emission and absorption mixed within a step), and
+// at the end T += (T_eg + T_CMB) e^-tau.
+//
+// The amplitude, spectral index and clumping factor were fitted (scripts/
+// fit-galaxy-sky.ts) so that the mean over |b| >= 30 deg reproduces the
+// Cane/Dulk spectrum plus the CMB within 10% from 1 to 100 MHz
+// (tests/reference/sky-models.test.ts measures it). Left out: discrete
+// sources, loops and spurs, the local bubble, the spiral arms, HII regions.
+
+import { nside2npix, pix2vecRingInto } from '../healpix';
+import { T_CMB_K } from './constants';
+
+export interface GalaxyParams {
+  /** synchrotron emissivity of the thin disk at the Sun at 10 MHz, K per kpc */
+  thin_k_per_kpc: number;
+  /** ratio thick/thin emissivity at the Sun */
+  thick_ratio: number;
+  thin_hz_kpc: number;
+  thin_hr_kpc: number;
+  thick_hz_kpc: number;
+  thick_hr_kpc: number;
+  /** brightness-temperature spectral index of the synchrotron emission */
+  beta: number;
+  /** clumping factor <n_e^2>/<n_e>^2 of the warm ionised gas */
+  clumping: number;
+  te_k: number;
+}
+
+export const GALAXY_PARAMS: GalaxyParams = {
+  thin_k_per_kpc: 57016,
+  thick_ratio: 0.6,
+  thin_hz_kpc: 0.25,
+  thin_hr_kpc: 5,
+  thick_hz_kpc: 1.5,
+  thick_hr_kpc: 10,
+  beta: -2.6,
+  clumping: 3,
+  te_k: 8000,
+};
+
+/** Galactocentric distance of the Sun, kpc (IAU 1985 value, as NE2001 uses). */
+export const R_SUN_KPC = 8.5;
+const NE_N1 = 0.033 / 0.97; // cm^-3
+const NE_H1 = 0.97; // kpc
+const NE_A1 = 17.5; // kpc
+const NE_G0 = Math.cos((Math.PI * R_SUN_KPC) / (2 * NE_A1));
+const PC_PER_KPC = 1000;
+
+/** Isotropic extragalactic background, K (ARCADE 2, Fixsen et al. 2011). */
+export function extragalacticK(freqMHz: number): number {
+  return 1.26 * Math.pow(freqMHz / 1000, -2.6);
+}
+
+/** NE2001 thick-disk electron density, cm^-3, at galactocentric radius R and height z (kpc). */
+export function electronDensity(R: number, z: number): number {
+  if (R >= NE_A1) return 0;
+  const g = Math.cos((Math.PI * R) / (2 * NE_A1)) / NE_G0;
+  const c = Math.cosh(z / NE_H1);
+  return (NE_N1 * g) / (c * c);
+}
+
+/** Free-free optical depth per (pc cm^-6) of emission measure at freqMHz (Condon & Ransom 2016, eq. 4.60). */
+export function tauPerEm(freqMHz: number, teK: number): number {
+  return 3.28e-7 * Math.pow(teK / 1e4, -1.35) * Math.pow(freqMHz / 1000, -2.1);
+}
+
+/** Brightness temperature, K, in galactic direction (gx, gy, gz) (x toward l = 0, z toward b = 90). */
+export function galaxyTemperatureGal(gx: number, gy: number, gz: number, freqMHz: number, p: GalaxyParams = GALAXY_PARAMS): number {
+  const spec = Math.pow(freqMHz / 10, p.beta);
+  const kEm = tauPerEm(freqMHz, p.te_k) * p.clumping; // per (n_e^2 pc)
+  let T = 0, tau = 0, s = 0;
+  const az = Math.abs(gz);
+  for (let step = 0; step < 400; step++) {
+    const ds = Math.min(0.5, 0.02 + 0.03 * s);
+    const sm = s + ds / 2;
+    const x = -R_SUN_KPC + sm * gx, y = sm * gy, z = sm * az;
+    const R = Math.sqrt(x * x + y * y);
+    if (z > 12 || R > 30) break;
+    const eps = p.thin_k_per_kpc * spec * (
+      Math.exp(-(R - R_SUN_KPC) / p.thin_hr_kpc - z / p.thin_hz_kpc) +
+      p.thick_ratio * Math.exp(-(R - R_SUN_KPC) / p.thick_hr_kpc - z / p.thick_hz_kpc));
+    const ne = electronDensity(R, z);
+    const dtau = kEm * ne * ne * ds * PC_PER_KPC;
+    const att = Math.exp(-tau);
+    const f = dtau < 1e-8 ? 1 - dtau / 2 : -Math.expm1(-dtau) / dtau;
+    T += (eps * ds * f + p.te_k * dtau * f) * att;
+    tau += dtau;
+    s += ds;
+  }
+  return T + (extragalacticK(freqMHz) + T_CMB_K) * Math.exp(-tau);
+}
+
+/** Working resolution of the galaxy model's cached maps. */
+export const GALAXY_NSIDE = 64;
+
+const cache = new Map<string, Float32Array>();
+const CACHE_MAX = 16;
+
+/**
+ * The galaxy model on a HEALPix RING grid in galactic coordinates (nside
+ * GALAXY_NSIDE), kelvin; cached per frequency (the model is smooth on that
+ * scale; finer use interpolates bilinearly).
+ */
+export function galaxyMapGal(freqMHz: number, nside = GALAXY_NSIDE, p: GalaxyParams = GALAXY_PARAMS): Float32Array {
+  const key = `${freqMHz}|${nside}|${p === GALAXY_PARAMS ? '' : JSON.stringify(p)}`;
+  const hit = cache.get(key);
+  if (hit) return hit;
+  const npix = nside2npix(nside);
+  const out = new Float32Array(npix);
+  const v = new Float64Array(3);
+  for (let i = 0; i < npix; i++) {
+    pix2vecRingInto(nside, i, v);
+    out[i] = galaxyTemperatureGal(v[0], v[1], v[2], freqMHz, p);
+  }
+  if (cache.size >= CACHE_MAX) cache.delete(cache.keys().next().value!);
+  cache.set(key, out);
+  return out;
+}
+
+/** Solid-angle mean of the model over |b| >= bMinDeg (on an nside grid in galactic coordinates). */
+export function galaxyHighLatitudeMean(freqMHz: number, bMinDeg = 30, nside = 16, p: GalaxyParams = GALAXY_PARAMS): number {
+  const npix = nside2npix(nside);
+  const v = new Float64Array(3);
+  const zmin = Math.sin((bMinDeg * Math.PI) / 180);
+  let s = 0, n = 0;
+  for (let i = 0; i < npix; i++) {
+    pix2vecRingInto(nside, i, v);
+    if (Math.abs(v[2]) < zmin) continue;
+    s += galaxyTemperatureGal(v[0], v[1], v[2], freqMHz, p);
+    n++;
+  }
+  return s / n;
+}
