@@ -15,12 +15,21 @@ Nothing here uses the project's code. Models (astropy, Debian python3-astropy):
 - galactic l/b: astropy's Galactic frame (the Hipparcos ICRS-to-galactic rotation).
 - Sun: astropy get_sun (apparent, geocentric) to AltAz at the site, pressure 0.
 No download: iers auto_download is off; the run fails rather than fetch anything.
+
+When a case carries "per_frequency" ({frequencies_mhz, aperture_m, model, fwhm_factor,
+nside, near_deg}), the per-frequency figures are computed on this astropy track and
+its own usable flags by plan_frequencies.py (healpy, scipy; see there).
 """
 import json
 import sys
 import warnings
 
+import os
+
 import numpy as np
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from plan_frequencies import per_frequency  # noqa: E402
 
 warnings.simplefilter('ignore')
 from astropy.utils import iers  # noqa: E402
@@ -62,7 +71,16 @@ def one(case):
     cos_gc = np.cos(np.radians(b)) * np.cos(np.radians(gal.l.deg))
     in_band = usable & (np.abs(b) < case['band_deg'])
     near = usable & (cos_gc > np.cos(np.radians(case['center_radius_deg'])))
+    gc_deg = np.degrees(np.arccos(np.clip(cos_gc, -1, 1)))
+    pf = None
+    if case.get('per_frequency'):
+        q = case['per_frequency']
+        zxyz = np.stack([zen.cartesian.x.value, zen.cartesian.y.value, zen.cartesian.z.value], axis=1)
+        pf = per_frequency(zxyz, w, usable, b, gc_deg, case['step_min'] / 60, q['frequencies_mhz'], q['aperture_m'],
+                           q['model'], q['fwhm_factor'], case['band_deg'], case['center_radius_deg'], q['nside'], q['near_deg'],
+                           np.asarray(q['plan_usable'], bool) != usable)
     return {
+        'per_frequency': pf,
         'samples': int(len(t)),
         'hours': {'total': float(w.sum()), 'sun_down': float(w[sun_down].sum()), 'usable': float(w[usable].sum())},
         'zenith': {'dec_min_deg': float(zen.dec.deg.min()), 'dec_max_deg': float(zen.dec.deg.max()),
@@ -71,10 +89,11 @@ def one(case):
                      'usable_hours_zenith_near_center': float(w[near].sum())},
         'sun_alt_deg': [round(float(x), 5) for x in sun_alt],
         'abs_b_deg': [round(float(x), 5) for x in np.abs(b)],
-        'gc_dist_deg': [round(float(x), 5) for x in np.degrees(np.arccos(np.clip(cos_gc, -1, 1)))],
+        'gc_dist_deg': [round(float(x), 5) for x in gc_deg],
     }
 
 
 if __name__ == '__main__':
     cases = json.loads(sys.argv[1])
-    print(json.dumps({'astropy': astropy.__version__, 'results': [one(c) for c in cases]}))
+    import healpy
+    print(json.dumps({'astropy': astropy.__version__, 'healpy': healpy.__version__, 'results': [one(c) for c in cases]}))

@@ -22,13 +22,14 @@
 // Skipped when /usr/bin/python3 lacks astropy, unless CI=true (then it fails).
 import { describe, expect, it } from 'vitest';
 import { runPlanCli } from '../fixtures/independent/runPlanCli';
+import { compareFrequencies } from '../fixtures/independent/compareFrequencies';
 import { execFileSync } from 'node:child_process';
 import { PY, requirePython } from './pythonRef';
 import { join } from 'node:path';
 
 const ROOT = join(import.meta.dirname, '..', '..');
 const SCRIPT = join(import.meta.dirname, 'summary-independent-earth.py');
-const hasAstropy = requirePython(['astropy.coordinates', 'numpy'], 'the whole-summary check against astropy');
+const hasAstropy = requirePython(['astropy.coordinates', 'numpy', 'healpy', 'scipy.special'], 'the whole-summary check against astropy and healpy');
 
 interface Row { usable: number; sun: number; b: number; l: number }
 
@@ -37,6 +38,9 @@ function runCli(scenarioPath: string): { summary: any; rows: Row[] } {
   return { summary, rows: rows.map((v) => ({ usable: Number(v('usable')), sun: Number(v('sun_elev_deg')), b: Number(v('b_deg')), l: Number(v('l_deg')) })) };
 }
 
+/** deg: how close to a limit a sample whose flag differs must lie (the zenith differs by ~0.006 deg) */
+const NEAR = 0.02;
+
 const relErr = (a: number, ref: number) => Math.abs(a - ref) / Math.max(Math.abs(ref), 1e-12);
 
 const FIXTURES = ['earth-north.json', 'earth-south.json'].map((f) => join(ROOT, 'tests', 'fixtures', 'independent', f));
@@ -44,15 +48,26 @@ const FIXTURES = ['earth-north.json', 'earth-south.json'].map((f) => join(ROOT, 
 describe('swathe plan summary vs an independent astropy computation (Earth sites)', () => {
   it.skipIf(!hasAstropy)('hours within 0.5%, zenith ranges within 0.02 deg, galactic dwell within 0.5%', () => {
     const runs = FIXTURES.map((f) => ({ f, ...runCli(f) }));
-    const cases = runs.map(({ summary: s }) => ({
+    const cases = runs.map(({ summary: s, rows }) => ({
       lat_deg: s.scenario.site.lat_deg, lon_deg: s.scenario.site.lon_deg,
       start_ms: Date.parse(s.scenario.span.start), end_ms: Date.parse(s.scenario.span.end), step_min: s.step_min,
       sun_max_elev_deg: s.scenario.constraints.sun_max_elev_deg,
       band_deg: s.scenario.map.galactic_band_deg, center_radius_deg: s.scenario.map.galactic_center_radius_deg,
+      per_frequency: {
+        frequencies_mhz: s.scenario.telescope.frequencies_mhz, aperture_m: s.scenario.telescope.aperture_m,
+        model: s.scenario.telescope.beam.model, fwhm_factor: s.scenario.telescope.beam.fwhm_factor,
+        nside: s.scenario.map.nside, near_deg: NEAR,
+        // the plan's usable flags, only to find the samples whose flag differs (each asserted below
+        // to lie within 0.01 deg of the threshold): their hours are the per-frequency allowance
+        plan_usable: rows.map((r) => r.usable),
+      },
     }));
     const ref = JSON.parse(execFileSync(PY, [SCRIPT, JSON.stringify(cases)], { encoding: 'utf8', timeout: 120_000 }));
     expect(ref.astropy).toMatch(/^\d+\.\d+/); // source: astropy, version as printed
-    const report: string[] = [`astropy ${ref.astropy}`];
+    expect(ref.healpy).toMatch(/^\d+\.\d+/); // source: healpy, version as printed
+    const report: string[] = [`astropy ${ref.astropy}, healpy ${ref.healpy}`];
+    // both beam models, and a Gaussian factor other than Airy's 1.029
+    expect(new Set(runs.map((r) => r.summary.scenario.telescope.beam.model))).toEqual(new Set(['gaussian', 'airy']));
     runs.forEach(({ f, summary: s, rows }, k) => {
       const r = ref.results[k];
       const name = f.split('/').pop();
@@ -108,6 +123,8 @@ describe('swathe plan summary vs an independent astropy computation (Earth sites
         }
       });
       report.push(`${name}: ${flips} threshold flips of ${rows.length} samples`);
+      // per-frequency figures against healpy + scipy on the astropy track (plan_frequencies.py)
+      report.push(...compareFrequencies(name!, s, r.per_frequency));
     });
     console.log(report.join('\n'));
   }, 120_000);

@@ -51,6 +51,16 @@ import { join } from 'node:path';
 import { coord, moon, moonposition, nutation, planetposition, precess, solar } from 'astronomia';
 import earthData from 'astronomia/data/vsop87Bearth';
 import { readSubpoints } from '../fixtures/ephemeris/parse';
+import { spawnSync } from 'node:child_process';
+import { compareFrequencies, type RefFrequency } from '../fixtures/independent/compareFrequencies';
+import { PY, requirePython } from './pythonRef';
+
+// Per-frequency figures (FWHM, sky fraction covered, exposure max and median over the
+// covered sky, hours with the beam on the band and near the centre): this Meeus track
+// and its own usable flags go to plan_frequencies.py (healpy query_disc, a brute-force
+// beam sum, scipy's J1), tolerances in compareFrequencies.ts.
+const hasHealpy = requirePython(['healpy', 'scipy.special', 'numpy'], 'the per-frequency check of Moon plans (plan_frequencies.py)');
+const PLAN_FREQ = join(import.meta.dirname, 'plan_frequencies.py');
 
 const ROOT = join(import.meta.dirname, '..', '..');
 const D = Math.PI / 180;
@@ -186,8 +196,9 @@ describe("the reference's own error: this Meeus frame vs the NASA SVS 2021 table
 });
 
 describe('swathe plan summary vs an independent Meeus/astronomia computation (Moon sites)', () => {
-  it('hours within 0.5%, zenith ranges within 0.04 deg, galactic dwell within 0.5% or the flipped samples', () => {
+  it('hours within 0.5%, zenith ranges within 0.04 deg, galactic dwell within 0.5% or the flipped samples; per-frequency figures against healpy', () => {
     const runs = FIXTURES.map((f) => ({ f, ...runCli(f) }));
+    expect(new Set(runs.map((r) => r.summary.scenario.telescope.beam.model))).toEqual(new Set(['gaussian', 'airy']));
     // both fixtures share span and step: one set of epochs serves both sites
     const grid = runs[0].rows.map((r) => r.ms);
     for (const r of runs) expect(r.rows.map((x) => x.ms)).toEqual(grid);
@@ -210,6 +221,7 @@ describe('swathe plan summary vs an independent Meeus/astronomia computation (Mo
       const gcDist = (l: number, b: number) => Math.acos(Math.min(1, Math.cos(b * D) * Math.cos(l * D))) / D;
       let total = 0, sunDown = 0, earthDown = 0, usable = 0, inBand = 0, near = 0;
       let flipUse = 0, flipBandH = 0, flipNearH = 0, worstZ = 0, worstSun = 0, worstEarth = 0;
+      const uRef: number[] = [], amb: number[] = [];
       ref.forEach((r, i) => {
         total += w[i];
         const sd = r.sun < sunThr, ed = r.earth < earthThr;
@@ -217,6 +229,9 @@ describe('swathe plan summary vs an independent Meeus/astronomia computation (Mo
         if (ed) earthDown += w[i];
         const u = (c.sun_max_elev_deg === null || sd) && (c.earth_max_elev_deg === null || ed);
         if (u) usable += w[i];
+        uRef.push(u ? 1 : 0);
+        // a sample whose usable flag differs (asserted below to lie within NEAR of a threshold)
+        amb.push(rows[i].usable !== (u ? 1 : 0) ? 1 : 0);
         if (u && Math.abs(r.b) < band) inBand += w[i];
         if (u && gcDist(r.l, r.b) < rad) near += w[i];
         const row = rows[i];
@@ -270,7 +285,24 @@ describe('swathe plan summary vs an independent Meeus/astronomia computation (Mo
         expect(Math.abs(a - b), `${name} galactic.${key} ${a} vs Meeus ${b} (allowed ${allowed})`).toBeLessThanOrEqual(allowed);
         report.push(`${name} galactic.${key}: ${a.toFixed(3)} vs ${b.toFixed(3)} h (allowed ${allowed.toFixed(3)})`);
       }
+      // the limits are not 0, so a sign error in them shows
+      expect(c.sun_max_elev_deg).not.toBe(0);
+      if (hasHealpy) {
+        const t = sc.telescope;
+        const py = spawnSync(PY, [PLAN_FREQ], {
+          input: JSON.stringify({
+            z: ref.map((r) => r.z), w, usable: uRef, b_deg: ref.map((r) => r.b), gc_deg: ref.map((r) => gcDist(r.l, r.b)),
+            step_h: stepH, frequencies_mhz: t.frequencies_mhz, aperture_m: t.aperture_m, model: t.beam.model,
+            fwhm_factor: t.beam.fwhm_factor, band_deg: band, center_radius_deg: rad, nside: sc.map.nside, near_deg: NEAR, ambiguous: amb,
+          }),
+          encoding: 'utf8', maxBuffer: 1 << 26, timeout: 300_000,
+        });
+        expect(py.status, py.stderr).toBe(0);
+        const pf = JSON.parse(py.stdout) as { healpy: string; per_frequency: RefFrequency[] };
+        report.push(`${name}: healpy ${pf.healpy}`);
+        report.push(...compareFrequencies(name!, s, pf.per_frequency));
+      }
     }
     console.log(report.join('\n'));
-  }, 120_000);
+  }, 600_000);
 });
