@@ -186,7 +186,8 @@ function has(o: Record<string, unknown>, k: string): boolean {
 function num(iss: Issues, field: string, v: unknown, range: readonly [number, number] | null): number | undefined {
   const what = range ? `a number ${fmtRange(range)}` : 'a finite number';
   if (typeof v !== 'number') {
-    iss.add(field, v === undefined ? `${field} is required (${what})` : `${field} must be ${what}, got ${describeValue(v)}`);
+    const comma = typeof v === 'string' && /^\s*[+\-\u2212]?\d*,\d+\s*$/.test(v) ? ' (use a point as the decimal separator)' : '';
+    iss.add(field, v === undefined ? `${field} is required (${what})` : `${field} must be ${what}, got ${describeValue(v)}${comma}`);
     return undefined;
   }
   if (!Number.isFinite(v)) {
@@ -994,7 +995,8 @@ export function decodeScenarioParam(str: string): ParseResult {
  * text itself (so the message shows what was typed, e.g. got "12,5").
  */
 export function formNumber(text: string): number | string {
-  const t = text.trim();
+  // what people paste: surrounding spaces, a leading +, a Unicode minus (U+2212, from typeset text), exponents
+  const t = text.trim().replace(/^\u2212/, '-').replace(/([eE])\u2212/, '$1-');
   if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return Number(t);
   return text;
 }

@@ -1,6 +1,6 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { PlanResult, Scenario } from '../core/types';
-import { parseScenario, parseScenarioJson, scenarioToJson } from '../core/scenario';
+import { parseScenario, parseScenarioBytes, scenarioToJson } from '../core/scenario';
 import { estimateRun, describeEstimate } from '../core/limits';
 import { SkyMap } from './skymap/SkyMap';
 import type { SkyFrame, SkyScale } from './skymap/SkyMap';
@@ -152,14 +152,15 @@ export function App() {
   const diff = useMemo(() => (diffOn && result ? { other: result, labelA: 'A', labelB: 'B' } : null), [diffOn, result]);
 
   const importFile = async (file: File) => {
-    let text: string;
+    let bytes: Uint8Array;
     try {
-      text = await file.text();
+      bytes = new Uint8Array(await file.arrayBuffer());
     } catch (e) {
       setNotices((p) => [...p, `Could not read ${file.name}: ${String(e)}`]);
       return;
     }
-    const r = parseScenarioJson(text, file.name);
+    // the bytes, as the CLI reads them: a binary or non-UTF-8 file gets the same message in both
+    const r = parseScenarioBytes(bytes, file.name);
     if (!r.ok) {
       setNotices((p) => [...p, `${file.name} was not imported; your current scenario is unchanged. ${r.issues.slice(0, 5).map((i) => i.message).join(' ')}`]);
       return;

@@ -373,6 +373,6 @@ describe('hostile and unusual input', () => {
     expect(formNumber('')).toBe('');
     const s = minimal();
     s.site.lat_deg = formNumber('12,5');
-    expect(messages(s)).toEqual(['site.lat_deg must be a number between -90 and 90, got "12,5"']);
+    expect(messages(s)).toEqual(['site.lat_deg must be a number between -90 and 90, got "12,5" (use a point as the decimal separator)']);
   });
 });
