@@ -23,7 +23,7 @@ describe('FWHM = k lambda / D, written-out cases', () => {
     ['Airy (1.029), 30 MHz, 1 km; the factor field is ignored', 30, 1000, { model: 'airy', fwhm_factor: 1.15 }, 0.589165700263],
     ['Airy (1.029), 3 MHz, 1 km', 3, 1000, { model: 'airy', fwhm_factor: 2.5 }, 5.891657002626],
   ];
-  it.each(cases)('%s: FWHM %f deg (1e-9 relative)', (_l, f, d, beam, deg) => {
+  it.each(cases)('%s, FWHM as written out, 1e-9 relative', (_l, f, d, beam, deg) => {
     expect(Math.abs((fwhmRad(f, d, beam) * DEG) / deg - 1)).toBeLessThan(1e-9);
     expect(Math.abs((makeBeam(f, d, beam).fwhmRad * DEG) / deg - 1)).toBeLessThan(1e-9);
   });
