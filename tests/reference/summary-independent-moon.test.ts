@@ -48,8 +48,8 @@
 import { describe, expect, it } from 'vitest';
 import { runPlanCli } from '../fixtures/independent/runPlanCli';
 import { join } from 'node:path';
-import { coord, moon, moonposition, nutation, planetposition, precess, solar } from 'astronomia';
-import earthData from 'astronomia/data/vsop87Bearth';
+import { D, dot, epochAt, lonLat, moonFrame, mv, sph, siteSample, wrapDeg, earth, TT_MINUS_UTC_S, type V3 } from '../fixtures/independent/meeusMoon';
+import { moon } from 'astronomia';
 import { readSubpoints } from '../fixtures/ephemeris/parse';
 import { spawnSync } from 'node:child_process';
 import { compareFrequencies, type RefFrequency } from '../fixtures/independent/compareFrequencies';
@@ -63,79 +63,6 @@ const hasHealpy = requirePython(['healpy', 'scipy.special', 'numpy'], 'the per-f
 const PLAN_FREQ = join(import.meta.dirname, 'plan_frequencies.py');
 
 const ROOT = join(import.meta.dirname, '..', '..');
-const D = Math.PI / 180;
-const earth = new planetposition.Planet(earthData);
-const AU_KM = 149_597_870.7;
-const MOON_R_KM = 1737.4;
-const TT_MINUS_UTC_S = 69.184;
-const I = 1.54242 * D; // Meeus ch. 53, inclination of the mean lunar equator
-const EPS0 = (84381.448 / 3600) * D;
-
-type V3 = [number, number, number];
-type M3 = [V3, V3, V3];
-// passive rotations (they turn the axes, not the vector)
-const rz = (t: number): M3 => [[Math.cos(t), Math.sin(t), 0], [-Math.sin(t), Math.cos(t), 0], [0, 0, 1]];
-const rx = (t: number): M3 => [[1, 0, 0], [0, Math.cos(t), Math.sin(t)], [0, -Math.sin(t), Math.cos(t)]];
-const mm = (a: M3, b: M3): M3 => a.map((r) => [0, 1, 2].map((j) => r[0] * b[0][j] + r[1] * b[1][j] + r[2] * b[2][j])) as M3;
-const mv = (a: M3, v: V3): V3 => a.map((r) => r[0] * v[0] + r[1] * v[1] + r[2] * v[2]) as V3;
-const mtv = (a: M3, v: V3): V3 => [0, 1, 2].map((j) => a[0][j] * v[0] + a[1][j] * v[1] + a[2][j] * v[2]) as V3;
-const sph = (lon: number, lat: number): V3 => [Math.cos(lat) * Math.cos(lon), Math.cos(lat) * Math.sin(lon), Math.sin(lat)];
-const lonLat = (v: V3): [number, number] => [Math.atan2(v[1], v[0]), Math.asin(v[2] / Math.hypot(v[0], v[1], v[2]))];
-const dot = (a: V3, b: V3) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const wrapDeg = (d: number) => ((((d + 180) % 360) + 360) % 360) - 180;
-
-/** Meeus ch. 53: ecliptic (mean, of date) -> Moon-fixed, with the physical librations. */
-function moonFrame(jde: number): M3 {
-  const m = new moon.Moon(jde);
-  const node = m.Ω + m.σ / Math.sin(I);
-  return mm(rz(m.F + Math.PI + m.τ - m.σ / Math.sin(I)), mm(rx(-(I + m.ρ)), rz(node)));
-}
-
-/** Meeus ch. 21: mean ecliptic of date -> J2000 ecliptic, as a matrix from three precessed axes. */
-function precessionToJ2000(jde: number): M3 {
-  const p = new precess.EclipticPrecessor(2000 + (jde - 2451545) / 365.25, 2000);
-  const cols = ([[1, 0, 0], [0, 1, 0], [0, 0, 1]] as V3[]).map((v) => {
-    const [lo, la] = lonLat(v);
-    const r = p.precess(new coord.Ecliptic(lo, la));
-    return sph(r.lon, r.lat);
-  });
-  return [0, 1, 2].map((i) => [cols[0][i], cols[1][i], cols[2][i]]) as M3;
-}
-
-/** Hipparcos (ESA 1997, vol. 1, 1.5.3) galactic coordinates from J2000 RA/Dec, radians -> degrees. */
-function galactic(ra: number, dec: number): { l: number; b: number } {
-  const aG = 192.85948 * D, dG = 27.12825 * D, lN = 122.93192 * D;
-  const b = Math.asin(Math.sin(dec) * Math.sin(dG) + Math.cos(dec) * Math.cos(dG) * Math.cos(ra - aG));
-  const l = lN - Math.atan2(Math.cos(dec) * Math.sin(ra - aG), Math.sin(dec) * Math.cos(dG) - Math.cos(dec) * Math.sin(dG) * Math.cos(ra - aG));
-  return { l: ((l / D) % 360 + 360) % 360, b: b / D };
-}
-
-interface Epoch { frame: M3; prec: M3; moonKm: V3; sunKm: V3 }
-
-function epochAt(utcMs: number): Epoch {
-  const jde = utcMs / 86_400_000 + 2440587.5 + TT_MINUS_UTC_S / 86_400;
-  const p = moonposition.position(jde); // mean ecliptic and equinox of date (no nutation)
-  const s = solar.apparentVSOP87(earth, jde);
-  const dpsi = nutation.nutation(jde)[0];
-  const moonKm = sph(p.lon, p.lat).map((x) => x * p.range) as V3;
-  const sunKm = sph(s.lon - dpsi, s.lat).map((x) => x * s.range * AU_KM) as V3;
-  return { frame: moonFrame(jde), prec: precessionToJ2000(jde), moonKm, sunKm };
-}
-
-interface RefSample { sun: number; earth: number; dec: number; eclLat: number; l: number; b: number; z: V3 }
-
-function siteSample(e: Epoch, latDeg: number, lonDeg: number): RefSample {
-  const up = mtv(e.frame, sph(lonDeg * D, latDeg * D)); // zenith, ecliptic of date
-  const site: V3 = [up[0] * MOON_R_KM, up[1] * MOON_R_KM, up[2] * MOON_R_KM];
-  const toSun: V3 = [e.sunKm[0] - e.moonKm[0] - site[0], e.sunKm[1] - e.moonKm[1] - site[1], e.sunKm[2] - e.moonKm[2] - site[2]];
-  const toEarth: V3 = [-e.moonKm[0] - site[0], -e.moonKm[1] - site[1], -e.moonKm[2] - site[2]];
-  const elev = (v: V3) => Math.asin(dot(v, up) / Math.hypot(v[0], v[1], v[2])) / D;
-  const zJ = mv(e.prec, up); // J2000 ecliptic
-  const z: V3 = [zJ[0], Math.cos(EPS0) * zJ[1] - Math.sin(EPS0) * zJ[2], Math.sin(EPS0) * zJ[1] + Math.cos(EPS0) * zJ[2]];
-  const [ra, dec] = lonLat(z);
-  const g = galactic(ra, dec);
-  return { sun: elev(toSun), earth: elev(toEarth), dec: dec / D, eclLat: lonLat(zJ)[1] / D, l: g.l, b: g.b, z };
-}
 
 interface Row { ms: number; usable: number; sun: number; earth: number; ra: number; dec: number; l: number; b: number }
 
