@@ -204,7 +204,7 @@ test('a corrupt saved scenario or a damaged link falls back to the demo with a n
   await expect(page.getByTestId('notices')).toContainText(/saved scenario could not be read/i);
   await expect(page.getByLabel('Latitude', { exact: true })).toHaveValue(String(DEMO_SCENARIO.site.lat_deg));
   await page.goto('./?s=not*base64!');
-  await expect(page.getByTestId('notices')).toContainText(/link could not be read/i);
+  await expect(page.getByTestId('notices')).toContainText(/link could not be opened/i);
   await expect(page.getByLabel('Scenario name')).toHaveValue(DEMO_SCENARIO.name);
 });
 

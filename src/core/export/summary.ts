@@ -27,13 +27,16 @@ function ordered(o: object, known: string[]): Record<string, unknown> {
 /** Hours in summary.json are rounded to this many decimals (1e-6 h = 3.6 ms): no binary floating-point tails. */
 export const SUMMARY_HOURS_DECIMALS = 6;
 
+/** One hour figure as summary.json writes it (the table's data attributes use it too). */
+export const summaryHours = (v: number): number => Number(v.toFixed(SUMMARY_HOURS_DECIMALS));
+
 const isHoursKey = (k: string) => /(^|_)hours(_|$)|_h$|_h_/.test(k);
 
 /** Rounds the hour figures of one object (keys named for hours, or every value when `all`). */
 function roundHours(o: Record<string, unknown>, all = false): Record<string, unknown> {
   for (const k of Object.keys(o)) {
     const v = o[k];
-    if (typeof v === 'number' && Number.isFinite(v) && (all || isHoursKey(k))) o[k] = Number(v.toFixed(SUMMARY_HOURS_DECIMALS));
+    if (typeof v === 'number' && Number.isFinite(v) && (all || isHoursKey(k))) o[k] = summaryHours(v);
   }
   return o;
 }

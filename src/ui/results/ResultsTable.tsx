@@ -2,6 +2,7 @@ import { useId } from 'react';
 import type { PlanResult } from '../../core/types';
 import { fixed, hours, percent, sig, wavelength, kelvin } from '../format';
 import { ScrollCue } from '../ScrollCue';
+import { summaryHours } from '../../core/export/summary';
 
 // One row per frequency, straight from PlanResult.summary (the same figures as summary.json).
 
@@ -41,7 +42,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               data-testid={`result-row-${i}`}
               data-mhz={f.mhz}
               data-sky-fraction={f.sky_fraction_covered}
-              data-exposure-max={f.exposure_max_h}
+              data-exposure-max={summaryHours(f.exposure_max_h)}
               data-noise-median={f.noise_median_k ?? ''}
             >
               <th scope="row">
