@@ -8,8 +8,13 @@
 //  - Earth: precession and nutation (`Rotation_EQD_EQJ`) and Greenwich apparent
 //    sidereal time (`SiderealTime`). UT1 is taken as UTC and polar motion is
 //    ignored (both below 0.004 degrees in the zenith direction).
-// Site latitudes are planetocentric on a sphere for the Moon and Mars (the zenith
-// is the radial direction) and geodetic on the WGS84 ellipsoid for the Earth.
+// Site latitudes: geodetic on the WGS84 ellipsoid for the Earth; planetocentric
+// for the Moon and Mars (IAU body-fixed frames, the convention of current Mars
+// maps). The zenith is always the normal to the body's reference ellipsoid at
+// the site: on the Moon (a sphere) that is the radius; on Mars (IAU WGCCRE
+// 2015 ellipsoid, Archinal et al. 2018, a = 3396.19 km, b = 3376.20 km) it
+// points at the planetographic latitude, tan(phi_g) = (a/b)^2 tan(phi_c), up
+// to 0.34 deg off the radius.
 
 import * as AE from 'astronomy-engine';
 import type { BodyName } from './types';
@@ -20,7 +25,7 @@ const DEG = Math.PI / 180;
 export interface BodyInfo {
   name: BodyName;
   label: string;
-  /** Mean radius used for the site's position (km); Earth: WGS84 equatorial radius. */
+  /** Mean radius (km); Earth: WGS84 equatorial radius. Sites sit on the eq/polar ellipsoid below. */
   radius_km: number;
   eq_radius_km: number;
   polar_radius_km: number;
@@ -63,7 +68,7 @@ export const BODIES: Record<BodyName, BodyInfo> = {
     name: 'mars',
     label: 'Mars',
     radius_km: 3389.5, // IAU WGCCRE 2015 mean radius
-    eq_radius_km: 3396.19,
+    eq_radius_km: 3396.19, // IAU WGCCRE 2015 reference ellipsoid (Archinal et al. 2018)
     polar_radius_km: 3376.2,
     latitude: 'planetocentric',
     spin_at_j2000_deg: 176.049863, // IAU WGCCRE 2015
@@ -143,24 +148,36 @@ export interface SiteGeometry {
   north: Vec3;
 }
 
-/** Site position and local frame in body-fixed axes (lat planetocentric or geodetic, see BODIES). */
+/**
+ * Site position and local frame in body-fixed axes (lat planetocentric or geodetic, see BODIES).
+ * The site sits on the reference ellipsoid and `up` is the ellipsoid's normal there.
+ */
 export function siteGeometry(body: BodyName, latDeg: number, lonDeg: number): SiteGeometry {
   const b = BODIES[body];
-  const phi = latDeg * DEG, lam = lonDeg * DEG;
-  const cp = Math.cos(phi), sp = Math.sin(phi), cl = Math.cos(lam), sl = Math.sin(lam);
-  const up: Vec3 = [cp * cl, cp * sl, sp];
-  const east: Vec3 = [-sl, cl, 0];
-  const north: Vec3 = [-sp * cl, -sp * sl, cp];
+  const a = b.eq_radius_km, c = b.polar_radius_km;
+  const lam = lonDeg * DEG;
+  const cl = Math.cos(lam), sl = Math.sin(lam);
+  let phiN: number; // latitude of the normal (geodetic / planetographic)
   let pos_km: Vec3;
   if (b.latitude === 'geodetic') {
     // WGS84: N = a / sqrt(1 - e^2 sin^2 phi); position at zero height.
-    const a = b.eq_radius_km;
-    const e2 = 1 - (b.polar_radius_km / a) ** 2;
+    phiN = latDeg * DEG;
+    const cp = Math.cos(phiN), sp = Math.sin(phiN);
+    const e2 = 1 - (c / a) ** 2;
     const N = a / Math.sqrt(1 - e2 * sp * sp);
     pos_km = [N * cp * cl, N * cp * sl, N * (1 - e2) * sp];
   } else {
-    pos_km = [b.radius_km * up[0], b.radius_km * up[1], b.radius_km * up[2]];
+    const phiC = latDeg * DEG;
+    const cc = Math.cos(phiC), sc = Math.sin(phiC);
+    // a sphere keeps the radial vertical exactly (no atan2 round trip)
+    phiN = a === c ? phiC : Math.atan2(a * a * sc, c * c * cc);
+    const r = a === c ? a : (a * c) / Math.hypot(c * cc, a * sc);
+    pos_km = [r * (cc * cl), r * (cc * sl), r * sc];
   }
+  const cp = Math.cos(phiN), sp = Math.sin(phiN);
+  const up: Vec3 = [cp * cl, cp * sl, sp];
+  const east: Vec3 = [-sl, cl, 0];
+  const north: Vec3 = [-sp * cl, -sp * sl, cp];
   return { pos_km, up, east, north };
 }
 

@@ -280,7 +280,8 @@ function siteFromRow(
   const p = geo.pos_km;
   const pp = p[0] * p[0] + p[1] * p[1] + p[2] * p[2];
   const up_p = u0 * p[0] + u1 * p[1] + u2 * p[2];
-  const spherical = BODIES[body].latitude !== 'geodetic';
+  // on a sphere the site lies along its vertical (p = R up): a shortcut for M p
+  const spherical = BODIES[body].eq_radius_km === BODIES[body].polar_radius_km;
   const R = Math.sqrt(pp);
   const c = s.constraints;
   const sunLim = c.sun_max_elev_deg, earthLim = row.E ? c.earth_max_elev_deg : null;

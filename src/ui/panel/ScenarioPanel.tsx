@@ -29,6 +29,13 @@ export function isoUtc(ms: number): string {
   return new Date(Math.round(ms / 1000) * 1000).toISOString().replace('.000Z', 'Z');
 }
 
+// which latitude the field takes; on Mars the zenith is the IAU ellipsoid's normal (core/bodies.ts)
+const LAT_HINT: Record<BodyName, string> = {
+  earth: '° N, geodetic (WGS84)',
+  moon: '° N, planetocentric',
+  mars: '° N, planetocentric; zenith: IAU ellipsoid normal',
+};
+
 const NSIDES = [8, 16, 32, 64, 128, 256, 512, 1024];
 
 export function ScenarioPanel({ draft, issues, onChange }: {
@@ -62,7 +69,7 @@ export function ScenarioPanel({ draft, issues, onChange }: {
           )}
         </Field>
         <div className="pair">
-          <Field label="Latitude" messages={issues.get('site.lat_deg')} hint={draft.body === 'earth' ? '° N, geodetic' : '° N, planetocentric'}>
+          <Field label="Latitude" messages={issues.get('site.lat_deg')} hint={LAT_HINT[draft.body]}>
             {(p) => <input {...p} inputMode="decimal" value={draft.lat} onChange={(e) => onChange({ lat: e.target.value })} />}
           </Field>
           <Field label="Longitude" messages={issues.get('site.lon_deg')} hint="° E">
