@@ -31,6 +31,30 @@ describe('summary figures', () => {
     expect(usableHoursInBand(t, half, 13)).toBeCloseTo(50, 9);
   });
 
+  it('the band test is two-sided: a zenith south of the band counts when the beam reaches it, and not beyond', () => {
+    // band 10 deg; constant-b tracks of 100 h south of the plane
+    const south = (b: number) => galacticCircleTrack({ bDeg: b, rateDegPerH: 1, stepMin: 30, spanH: 100 });
+    const all = (t: { n: number }) => new Uint8Array(t.n).fill(1);
+    const t12 = south(-12); // b < -band: zenith out, a FWHM-6 beam (edge at 13) in
+    expect(usableHoursInBand(t12, all(t12), 10)).toBe(0);
+    expect(usableHoursInBand(t12, all(t12), 10 + 6 / 2)).toBeCloseTo(100, 9);
+    const t14 = south(-14); // beyond band + FWHM/2 on the south side: never on the band
+    expect(usableHoursInBand(t14, all(t14), 10 + 6 / 2)).toBe(0);
+    const t5 = south(-5); // -band < b < 0: on the band
+    expect(usableHoursInBand(t5, all(t5), 10)).toBeCloseTo(100, 9);
+    // a zenith crossing the plane from b = -30 to +30 at 1 deg/h (61 one-hour samples):
+    // |b| < 13 holds for b = -12..12, 25 h; usable only south of the plane: b = -12..-1, 12 h
+    const t = galacticCircleTrack({ bDeg: 0, rateDegPerH: 0, stepMin: 60, spanH: 61 });
+    for (let i = 0; i < t.n; i++) t.b_deg[i] = -30 + i;
+    expect(t.n).toBe(61);
+    expect(usableHoursInBand(t, all(t), 13)).toBeCloseTo(25, 9);
+    expect(usableHoursInBand(t, Uint8Array.from(t.b_deg, (b) => (b < 0 ? 1 : 0)), 13)).toBeCloseTo(12, 9);
+    const f = frequencySummary({
+      mhz: 10, fwhmRad: 6 * DEG, exposure: new Float32Array(768), covered: new Uint8Array(768), track: t, usable: all(t), map: MAP,
+    });
+    expect(f.usable_hours_beam_in_band).toBeCloseTo(25, 9);
+  });
+
   it('hours near the galactic centre: along b = 0 for one full turn, the arc within r of l = 0', () => {
     // 360 h at 1 deg/h from l = 0: within 25.5 deg of the centre for
     // samples at l = 0..25 and 335..359 -> 26 + 25 = 51 one-hour samples

@@ -127,4 +127,14 @@ describe('summaries', () => {
     expect(g2.band_deg).toBe(4);
     expect(vecToGalDeg(raDecDegToVec(tr.ra_deg[2], tr.dec_deg[2]))[1]).toBeCloseTo(-3, 9);
   });
+  it('galactic dwell is two-sided: south of the band (b < -band) is out, -band < b < 0 is in', () => {
+    const south = synthetic('moon', [
+      [-5, 90, -5, 0, 30, -20], [-5, 90, -5, 0, 40, -5], [-5, 90, -5, 0, 50, -3.9],
+      [-5, 90, -5, 0, 60, -4], [-5, 90, -5, 0, 70, 3.9], [-5, 90, -5, 0, 80, 4], [-5, 90, -5, 0, 90, 20],
+    ], 0.5);
+    const g = galacticSummary(south, new Uint8Array(7).fill(1), { nside: 64, galactic_band_deg: 4, galactic_center_radius_deg: 10.5 });
+    expect(g.usable_hours_zenith_in_band).toBe(1.0); // b = -3.9 and 3.9; -4 and 4 are on the edge (strict <)
+    const g6 = galacticSummary(south, new Uint8Array(7).fill(1), { nside: 64, galactic_band_deg: 6, galactic_center_radius_deg: 10.5 });
+    expect(g6.usable_hours_zenith_in_band).toBe(2.5); // b = -5, -3.9, -4, 3.9, 4
+  });
 });
