@@ -1,4 +1,4 @@
-import type { BeamModel, BeamSpec, BodyName, FeedOffset, FieldIssue, HorizonPoint, PatternTable, PlanSegment, Pointing, Scenario } from './types';
+import type { BeamModel, BeamSpec, SkySpec, SkyModelName, BodyName, FeedOffset, FieldIssue, HorizonPoint, PatternTable, PlanSegment, Pointing, Scenario } from './types';
 import { hasIonosphere, interplanetaryCutoffMHz } from './shielding/plasma';
 import { parseUtcMs } from './time';
 import { fwhmRad } from './beam';
@@ -55,6 +55,11 @@ export const SCENARIO_LIMITS = {
   table_azimuth_deg: [0, 360],
   table_gain_db: [-300, 100],
   table_max_values: 400_000,
+  /** Sky (ARCHITECTURE.md section 6) */
+  sky_maps_count: [1, 8],
+  sky_map_file_max_chars: 1000,
+  spectral_index: [-5, 1],
+  ground_temp_k: [0, 10_000],
   /** Largest scenario text (JSON file, URL payload after decoding) accepted. */
   text_max_bytes: 2_000_000,
 } as const;
@@ -311,7 +316,10 @@ function horizonMask(iss: Issues, field: string, v: unknown): HorizonPoint[] | n
 
 // ---------------------------------------------------------------- the scenario
 
-const TOP_KEYS = ['format', 'name', 'site', 'span', 'telescope', 'constraints', 'map'] as const;
+const TOP_KEYS = ['format', 'name', 'site', 'span', 'telescope', 'constraints', 'map', 'sky'] as const;
+const SKY_KEYS = ['model', 'maps', 'spectral_index', 'ground_temp_k'] as const;
+const SKY_MAP_KEYS = ['file', 'frequency_mhz'] as const;
+const SKY_MODELS: readonly SkyModelName[] = ['galaxy', 'uniform', 'map'];
 const SITE_KEYS = ['body', 'lat_deg', 'lon_deg'] as const;
 const SPAN_KEYS = ['start', 'end', 'step_min'] as const;
 const TELESCOPE_KEYS = ['aperture_m', 'frequencies_mhz', 'beam', 'bandwidth_mhz', 'receiver_temp_k', 'pointing', 'feeds', 'pointing_plan'] as const;
@@ -468,6 +476,9 @@ function parseUnsafe(input: unknown): ParseResult {
     if (has(map, 'galactic_center_radius_deg')) radius = num(iss, 'map.galactic_center_radius_deg', map.galactic_center_radius_deg, SCENARIO_LIMITS.galactic_center_radius_deg);
   }
 
+  let sky: SkySpec | undefined;
+  if (has(top, 'sky')) sky = skySpecOf(iss, top.sky);
+
   if (iss.count > 0) return { ok: false, issues: iss.result() };
   const s: Scenario = {
     format: SCENARIO_FORMAT,
@@ -486,7 +497,56 @@ function parseUnsafe(input: unknown): ParseResult {
   if (pointing !== undefined) s.telescope.pointing = pointing;
   if (feeds !== undefined) s.telescope.feeds = feeds;
   if (plan !== undefined) s.telescope.pointing_plan = plan;
+  if (sky !== undefined) s.sky = sky;
   return { ok: true, scenario: s };
+}
+
+/** `sky`: model galaxy (default) | uniform | map (maps[] + spectral_index with one map); ground_temp_k optional. */
+function skySpecOf(iss: Issues, v: unknown): SkySpec | undefined {
+  const f = 'sky';
+  const o = readObject(iss, f, v, SKY_KEYS);
+  if (!o) return undefined;
+  const before = iss.count;
+  const model = has(o, 'model') ? oneOf(iss, `${f}.model`, o.model, SKY_MODELS) : 'galaxy';
+  const out: SkySpec = { model: model ?? 'galaxy' };
+  if (has(o, 'ground_temp_k')) out.ground_temp_k = num(iss, `${f}.ground_temp_k`, o.ground_temp_k, SCENARIO_LIMITS.ground_temp_k);
+  if (model === 'map') {
+    const [lo, hi] = SCENARIO_LIMITS.sky_maps_count;
+    if (!Array.isArray(o.maps) || o.maps.length < lo || o.maps.length > hi) {
+      iss.add(`${f}.maps`, `${f}.maps must be a list of ${lo} to ${hi} maps ({ "file": "sky408.fits", "frequency_mhz": 408 }) for the map model, got ${describeValue(o.maps)}`);
+    } else {
+      const maps: SkySpec['maps'] = [];
+      o.maps.forEach((m: unknown, i: number) => {
+        const mf = `${f}.maps[${i}]`;
+        const r = readObject(iss, mf, m, SKY_MAP_KEYS);
+        if (!r) return;
+        const file = r.file;
+        const maxC = SCENARIO_LIMITS.sky_map_file_max_chars;
+        if (typeof file !== 'string' || file.trim() === '' || file.length > maxC || CONTROL_CHARS.test(file) || LONE_SURROGATE.test(file)) {
+          iss.add(`${mf}.file`, `${mf}.file must be a file name (a HEALPix FITS map, path relative to the scenario file; 1 to ${maxC} printable characters), got ${describeValue(file)}`);
+        }
+        const fr = num(iss, `${mf}.frequency_mhz`, r.frequency_mhz, SCENARIO_LIMITS.frequency_mhz);
+        if (fr !== undefined) {
+          const j = maps.findIndex((q) => q.frequency_mhz === fr);
+          if (j >= 0) iss.add(`${mf}.frequency_mhz`, `${mf}.frequency_mhz repeats ${fr} MHz (already at ${f}.maps[${j}]); give one map per frequency`);
+        }
+        if (typeof file === 'string' && fr !== undefined) maps.push({ file, frequency_mhz: fr });
+      });
+      out.maps = maps;
+      const n = o.maps.length;
+      if (n === 1) {
+        if (!has(o, 'spectral_index')) iss.add(`${f}.spectral_index`, `${f}.spectral_index is required with one map (the brightness-temperature index beta of T - T_CMB, a number ${fmtRange(SCENARIO_LIMITS.spectral_index)}; about -2.5 for synchrotron)`);
+        else out.spectral_index = num(iss, `${f}.spectral_index`, o.spectral_index, SCENARIO_LIMITS.spectral_index);
+      } else if (has(o, 'spectral_index')) {
+        iss.add(`${f}.spectral_index`, `${f}.spectral_index applies to a single map; with ${n} maps the index is taken pixel by pixel between the two maps nearest in frequency: remove it`);
+      }
+    }
+  } else if (model !== undefined) {
+    for (const k of ['maps', 'spectral_index'] as const) {
+      if (has(o, k)) iss.add(`${f}.${k}`, `${f}.${k} belongs to the map model (sky.model is "${model}"): remove it or set sky.model to "map"`);
+    }
+  }
+  return iss.count === before ? out : undefined;
 }
 
 function diffractionSetting(iss: Issues, v: unknown, mask: HorizonPoint[] | null | undefined): Scenario['constraints']['diffraction'] | undefined {
@@ -924,6 +984,16 @@ export function canonical(s: Scenario): Scenario {
       ...(s.constraints.sun_min_separation_deg !== undefined ? { sun_min_separation_deg: s.constraints.sun_min_separation_deg } : {}),
     },
     map: { nside: s.map.nside, galactic_band_deg: s.map.galactic_band_deg, galactic_center_radius_deg: s.map.galactic_center_radius_deg },
+    ...(s.sky !== undefined ? { sky: canonicalSky(s.sky) } : {}),
+  };
+}
+
+function canonicalSky(k: SkySpec): SkySpec {
+  return {
+    model: k.model,
+    ...(k.maps !== undefined ? { maps: k.maps.map((m) => ({ file: m.file, frequency_mhz: m.frequency_mhz })) } : {}),
+    ...(k.spectral_index !== undefined ? { spectral_index: k.spectral_index } : {}),
+    ...(k.ground_temp_k !== undefined ? { ground_temp_k: k.ground_temp_k } : {}),
   };
 }
 

@@ -40,6 +40,23 @@ export interface FeedOffset { x_offset_deg: number; y_offset_deg: number }
 /** One time segment of a pointing plan (segments tile the span). */
 export interface PlanSegment { start: string; end: string; elevation_deg: number; azimuth_deg: number }
 
+/** `sky` (ARCHITECTURE.md section 6): which sky brightness the antenna sees. */
+export type SkyModelName = 'galaxy' | 'uniform' | 'map';
+export interface SkyMapRef {
+  /** path relative to the scenario file (CLI); in the app, the name of the file the user picked */
+  file: string;
+  frequency_mhz: number;
+}
+export interface SkySpec {
+  model: SkyModelName;
+  /** model `map` only: one or more HEALPix FITS maps at distinct frequencies */
+  maps?: SkyMapRef[];
+  /** model `map` with one map: brightness-temperature spectral index beta */
+  spectral_index?: number;
+  /** temperature of the ground seen by the part of the beam below the horizon or mask, K; absent = left out */
+  ground_temp_k?: number;
+}
+
 /** A validated, normalised `swathe.scenario/1` (defaults filled in). */
 export interface Scenario {
   format: 'swathe.scenario/1';
@@ -75,6 +92,8 @@ export interface Scenario {
     sun_min_separation_deg?: number;
   };
   map: { nside: number; galactic_band_deg: number; galactic_center_radius_deg: number };
+  /** added, optional: the sky brightness model; absent means the default (`galaxy`); kept only when given */
+  sky?: SkySpec;
 }
 
 /** A horizon-mask point: azimuth and elevation (degrees), optionally the distance to that point of the rim (metres). */
