@@ -14,6 +14,7 @@ import { gcCrossings } from './scrub/gcCrossings';
 import { ComparePanel } from './compare/ComparePanel';
 import { RunBar } from './RunBar';
 import { ViewControls } from './ViewControls';
+import { appIssues } from './state/fieldLabels';
 import { IssueIndex, draftToCandidate, scenarioToDraft, type Draft } from './state/draft';
 import { browserStore, loadStartup, saveScenario, shareLink } from './state/persist';
 import { readRecent, rememberScenario, type RecentEntry } from './state/recent';
@@ -67,7 +68,7 @@ export function App() {
   const scenario: Scenario | null = parsed.ok ? parsed.scenario : null;
   const estimate = useMemo(() => (scenario ? estimateRun(scenario) : null), [scenario]);
   const issues = useMemo(
-    () => new IssueIndex([...(parsed.ok ? [] : parsed.issues), ...(estimate?.problems ?? [])]),
+    () => new IssueIndex(appIssues([...(parsed.ok ? [] : parsed.issues), ...(estimate?.problems ?? [])])),
     [parsed, estimate],
   );
   const runnable = scenario !== null && estimate !== null && estimate.problems.length === 0;

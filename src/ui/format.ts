@@ -42,11 +42,18 @@ export function duration(seconds: number): string {
   return `${Math.round(seconds / 60)} min`;
 }
 
+/** The SI-prefixed kelvin unit for a magnitude (BIPM SI Brochure, Table 7), and the factor from K to it. */
+export function kelvinUnit(magnitude: number): { factor: number; unit: 'K' | 'mK' | 'µK' | 'nK' } {
+  const a = Math.abs(magnitude);
+  if (!(a > 0) || a >= 1 || !Number.isFinite(a)) return { factor: 1, unit: 'K' };
+  if (a >= 1e-3) return { factor: 1e3, unit: 'mK' };
+  if (a >= 1e-6) return { factor: 1e6, unit: 'µK' };
+  return { factor: 1e9, unit: 'nK' };
+}
+
 /** Kelvin with an SI prefix so the digits stay readable: 318.6 µK rather than 3.186e-4 K. */
 export function kelvin(v: number, digits = 3): string {
   if (!Number.isFinite(v)) return '—';
-  const a = Math.abs(v);
-  if (v === 0 || a >= 1) return `${Number(v.toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 10 })} K`;
-  const [scale, unit] = a >= 1e-3 ? [1e3, 'mK'] : a >= 1e-6 ? [1e6, 'µK'] : [1e9, 'nK'];
-  return `${Number((v * scale).toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 10 })} ${unit}`;
+  const { factor, unit } = kelvinUnit(v);
+  return `${Number((v * factor).toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 10 })} ${unit}`;
 }

@@ -190,6 +190,12 @@ test('a bad latitude gets a message naming the range and the last map stays', as
   await expect(lat).toHaveAttribute('aria-invalid', 'true');
   await expect(page.locator('.field.invalid .field-msg').first()).toContainText('-90');
   await expect(page.locator('.field.invalid .field-msg').first()).toContainText('95');
+  // in the app the message names the label on screen, not the file field (issue 9 item 3)
+  await expect(page.locator('.field.invalid .field-msg').first()).toHaveText('"Latitude" must be between -90 and 90, got 95');
+  const step = page.getByLabel('Step (min)', { exact: true });
+  await step.fill('0');
+  await expect(page.locator('.field.invalid .field-msg').nth(1)).toContainText('"Step (min)" must be empty (automatic) or a number of minutes between 0.01 and 1440, got 0');
+  await step.fill('');
   await expect(page.getByTestId('invalid-status')).toBeVisible();
   await page.waitForTimeout(1000);
   expect(await drawCount(page)).toBe(n0);

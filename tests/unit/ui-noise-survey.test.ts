@@ -3,7 +3,7 @@ import type { PlanResult } from '../../src/core/types';
 import { DEMO_SCENARIO } from '../../src/core/demo';
 import { runPlan } from '../../src/engine/runPlan';
 import { cachedCoveredMasks, coveredMasks, engineMasks, outlineNside } from '../../src/ui/skymap/coverageOutline';
-import { noiseRange, noiseScale, NOISE_TOP_QUANTILE, colourBarTitle, formatViewValue } from '../../src/ui/skymap/figure';
+import { noiseRange, noiseScale, NOISE_TOP_QUANTILE, colourBarOptions, colourBarTitle, formatViewValue } from '../../src/ui/skymap/figure';
 import { checkStep, estimateSurvey } from '../../src/ui/survey/surveyEstimate';
 import { layerValueText } from '../../src/ui/survey/SurveyPanel';
 
@@ -73,7 +73,15 @@ describe('noise colour scale', () => {
   it('labels the bar and readouts in kelvin only when the view shows noise', () => {
     const v = { freqIndex: 0, frame: 'equatorial' as const, scale: 'linear' as const, flipLongitude: false, compare: false };
     expect(colourBarTitle({ ...v, quantity: 'noise' }, { kind: 'linear', min: 1, max: 2 })).toBe('Noise σ_T (K)');
-    expect(formatViewValue({ ...v, quantity: 'noise' }, 0.01234)).toBe('0.0123 K');
+    // SI prefixes, never exponent notation (issue 9 item 9; BIPM SI Brochure, Table 7)
+    expect(formatViewValue({ ...v, quantity: 'noise' }, 0.01234)).toBe('12.3 mK');
+    expect(formatViewValue({ ...v, quantity: 'noise' }, 3.186e-4)).toBe('319 µK');
+    expect(colourBarTitle({ ...v, quantity: 'noise' }, { kind: 'linear', min: 1e-4, max: 4e-4 })).toBe('Noise σ_T (µK)');
+    expect(colourBarTitle({ ...v, quantity: 'noise' }, { kind: 'log', min: 1e-5, max: 4e-3 })).toBe('Noise σ_T (mK, logarithmic)');
+    // the bar's ticks are in the title's unit
+    const o = colourBarOptions({ noise_maps: undefined } as unknown as PlanResult, { ...v, quantity: 'noise' }, { kind: 'linear', min: 1e-4, max: 4e-4 });
+    expect(o.tick!(2e-4)).toBe('200');
+    expect(o.format(2e-4)).toBe('200 µK');
     expect(colourBarTitle({ ...v, quantity: 'noise', compare: true }, null)).toBe('Exposure (h)');
     expect(formatViewValue(v, 12.5)).toBe('12.5 h');
   });
@@ -103,7 +111,9 @@ describe('survey step and estimate', () => {
   it('formats layer values with their unit', () => {
     expect(layerValueText({ figure: 'sky_fraction_covered', unit: '' }, 0.1234)).toBe('12.3 %');
     expect(layerValueText({ figure: 'usable_h', unit: 'h' }, 1234.4)).toBe('1,234 h');
-    expect(layerValueText({ figure: 'noise_median_k', unit: 'K' }, 0.4567)).toBe('0.457 K');
+    expect(layerValueText({ figure: 'noise_median_k', unit: 'K' }, 0.4567)).toBe('457 mK');
+    expect(layerValueText({ figure: 'noise_median_k', unit: 'K' }, 3.186e-4)).toBe('319 µK');
+    expect(layerValueText({ figure: 'noise_median_k', unit: 'K' }, 2.5)).toBe('2.5 K');
     expect(layerValueText({ figure: 'noise_median_k', unit: 'K' }, NaN)).toBe('no value');
   });
 });

@@ -1,3 +1,4 @@
+import { kelvin } from '../format';
 import { useEffect, useRef, useState, type JSX } from 'react';
 import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
@@ -403,6 +404,7 @@ function ShadingLegend({ shading }: { shading: GlobeShading }): JSX.Element {
 
 function fmtValue(v: number, unit: string | undefined): string {
   if (!Number.isFinite(v)) return '—';
+  if (unit === 'K') return kelvin(v);
   const a = Math.abs(v);
   const t = a >= 100 ? Math.round(v).toLocaleString('en-US') : Number(v.toPrecision(3)).toLocaleString('en-US', { maximumFractionDigits: 6 });
   return unit ? `${t} ${unit}` : t;

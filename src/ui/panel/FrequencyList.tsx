@@ -71,7 +71,7 @@ export function FrequencyList({ draft, issues, onChange }: { draft: Draft; issue
       </table>
       {draft.freqs.map((_, i) => {
         const msgs = issues.get(`telescope.frequencies_mhz.${i}`);
-        return msgs.length ? <p key={i} className="field-msg" role="alert">Frequency {i + 1}: {msgs.join(' ')}</p> : null;
+        return msgs.length ? <p key={i} className="field-msg" role="alert">{msgs.join(' ')}</p> : null;
       })}
       {listMsgs.length > 0 && <p className="field-msg" role="alert">{listMsgs.join(' ')}</p>}
       <button type="button" className="small"

@@ -17,6 +17,7 @@ import {
 import { cachedCoveredMasks, outlineColour, outlineColourName, outlineNside, paintOutlines } from './coverageOutline';
 import { drawCentreMarker, drawGraticuleLabels, drawOverlays, fontPx, haloText, OVERLAY_STYLE, type Ctx2D } from './overlays';
 import { frameAxisNames, makeMapGeometry, type LookupCache, type MapGeometry, type SkyFrame } from './skyProjection';
+import { kelvin, kelvinUnit } from '../format';
 
 // The parts of a sky-map figure shared by the on-screen map and the PNG export:
 // the colour raster, the overlays, the colour bar and the legend entries.
@@ -85,9 +86,11 @@ export function noiseRange(map: Float32Array): { min: number; q: number; max: nu
 }
 
 /** The colour bar options of a view (unit of the labels, the grey swatch's meaning). */
-export function colourBarOptions(result: PlanResult, view: SkyView, scale: ValueScale): { format: (v: number) => string; noneLabel?: string; topLabel?: string } {
+export function colourBarOptions(result: PlanResult, view: SkyView, scale: ValueScale): { format: (v: number) => string; tick?: (v: number) => string; noneLabel?: string; topLabel?: string } {
   const format = (v: number) => formatViewValue(view, v);
   if (!showsNoise(view)) return { format };
+  const { factor } = kelvinUnit(scale.max);
+  const tick = (v: number) => formatTick(v * factor);
   const noise = result.noise_maps?.[view.freqIndex];
   const r = noise ? noiseRange(noise) : null;
   const clipped = r !== null && r.max > scale.max * (1 + 1e-6);
@@ -96,6 +99,7 @@ export function colourBarOptions(result: PlanResult, view: SkyView, scale: Value
     maskedNoiseRange(noise, covered).max === scale.max;
   return {
     format,
+    tick,
     topLabel: !clipped
       ? `max ${format(scale.max)}`
       : byMask
@@ -305,15 +309,14 @@ export function drawMapLayer(
 /** A value with the unit the view's colours are in ("h" or "K"), for readouts and the bar's top label. */
 export function formatViewValue(view: SkyView, v: number): string {
   if (!showsNoise(view)) return formatHours(v);
-  if (!Number.isFinite(v)) return '—';
-  const a = Math.abs(v);
-  if (a >= 1e5 || (a > 0 && a < 1e-3)) return `${v.toExponential(2)} K`;
-  return `${Number(v.toPrecision(3)).toLocaleString('en-US', { maximumFractionDigits: 8 })} K`;
+  return kelvin(v);
 }
 
 export function colourBarTitle(view: SkyView, scale: ValueScale | null): string {
   if (showsNoise(view)) {
-    return scale?.kind === 'log' ? 'Noise σ_T (K, logarithmic)' : 'Noise σ_T (K)';
+    // the bar's ticks are in the prefixed unit of its top value (mK, µK), as the readouts are
+    const unit = kelvinUnit(scale?.max ?? 1).unit;
+    return scale?.kind === 'log' ? `Noise σ_T (${unit}, logarithmic)` : `Noise σ_T (${unit})`;
   }
   if (view.diff && scale?.kind === 'diverging') return `Exposure difference, ${view.diff.labelB} − ${view.diff.labelA} (h)`;
   return scale?.kind === 'log' ? 'Exposure (h, logarithmic)' : 'Exposure (h)';
@@ -334,7 +337,7 @@ export function drawColourBar(
   title: string,
   u: number,
   /** top-right label's value format (default hours) and the grey swatch's text */
-  opts: { format?: (v: number) => string; noneLabel?: string; topLabel?: string } = {},
+  opts: { format?: (v: number) => string; tick?: (v: number) => string; noneLabel?: string; topLabel?: string } = {},
 ): number {
   const fmt = opts.format ?? formatHours;
   const font = Math.max(10, 12 * u);
@@ -374,7 +377,7 @@ export function drawColourBar(
   let lastRight = -Infinity;
   for (const t of scaleTicks(scale, Math.max(2, Math.round(bw / (70 * u))))) {
     const tx = bx + scaleUnit(scale, t) * bw;
-    const label = formatTick(t);
+    const label = (opts.tick ?? formatTick)(t);
     const half = ctx.measureText(label).width / 2;
     if (tx - half < lastRight + 6 * u) continue;
     ctx.beginPath();

@@ -1,6 +1,7 @@
 import type { BeamModel, BodyName, FieldIssue, Scenario } from '../../core/types';
 import { HI_REST_MHZ } from '../../core/beam';
 import { formNumber } from '../../core/scenario';
+import { normPath } from './fieldLabels';
 
 // The form keeps what the user typed as text (a "draft"), so nothing typed is
 // lost while it is invalid. A draft turns into a candidate object that the
@@ -134,10 +135,6 @@ export function draftToCandidate(d: Draft): unknown {
   };
 }
 
-/** Field paths normalised to dots: `a.b[2].c` -> `a.b.2.c`. */
-export function normPath(p: string): string {
-  return p.replace(/\[(\d+)\]/g, '.$1').replace(/^\./, '');
-}
 
 /** Issues keyed by normalised path; `get` also matches issues on sub-fields (prefix). */
 export class IssueIndex {

@@ -1,3 +1,4 @@
+import { kelvin } from '../format';
 import { useId, useMemo, useState } from 'react';
 import type { Scenario } from '../../core/types';
 import type { SurveyFigure, SurveyLayer } from '../../core/surveyLayer';
@@ -7,7 +8,7 @@ import { cellCentre, cssRgb, nearestCell, NO_VALUE_RGB, valueColour } from '../g
 import { downloadText, fileStem } from '../exports/download';
 import { PLANNING_NOTE, bodyLabel } from '../caption';
 import { useWidth } from '../useWidth';
-import { checkStep, estimateSurvey, secondsText } from './surveyEstimate';
+import { checkStep, estimateSurvey, liveRate, secondsText } from './surveyEstimate';
 import { PANEL_FIGURES, type SurveyState } from './useSurvey';
 import './survey.css';
 
@@ -16,10 +17,11 @@ import './survey.css';
 // on a flat latitude/longitude map of the body (also passed to the globe by
 // the app), with the current site marked and click-to-pick.
 
-/** A layer value with its unit: sky fractions as percent, hours and kelvin with 3 significant digits. */
+/** A layer value with its unit: sky fractions as percent, hours with 3 significant digits, kelvin with an SI prefix. */
 export function layerValueText(layer: Pick<SurveyLayer, 'figure' | 'unit'>, v: number): string {
   if (!Number.isFinite(v)) return 'no value';
   if (layer.figure === 'sky_fraction_covered') return `${(v * 100).toFixed(1)} %`;
+  if (layer.unit === 'K') return kelvin(v); // SI prefixes (mK, µK) as in the results table
   const a = Math.abs(v);
   const t = a >= 1000 ? Math.round(v).toLocaleString('en-US') : Number(v.toPrecision(3)).toLocaleString('en-US', { maximumFractionDigits: 6 });
   return layer.unit ? `${t} ${layer.unit}` : t;
@@ -83,9 +85,10 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
   const [hoverCell, setHoverCell] = useState<number | null>(null);
   const step = checkStep(survey.stepText);
   const est = useMemo(
-    () => (scenario && step.ok ? estimateSurvey(scenario, step.step, survey.workers) : null),
-    [scenario, step.ok ? step.step : NaN, survey.workers], // eslint-disable-line react-hooks/exhaustive-deps
+    () => (scenario && step.ok ? estimateSurvey(scenario, step.step, survey.workers, survey.ratio) : null),
+    [scenario, step.ok ? step.step : NaN, survey.workers, survey.ratio], // eslint-disable-line react-hooks/exhaustive-deps
   );
+  const live = survey.running ? liveRate(survey.fraction, survey.elapsedMs, survey.runSites, survey.workers) : null;
   const freqs = scenario?.telescope.frequencies_mhz ?? survey.done?.scenario.telescope.frequencies_mhz ?? [];
   const canRun = scenario !== null && step.ok && survey.mhz !== null && !survey.running;
   const done = survey.done;
@@ -121,7 +124,7 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
           <input id={stepId} inputMode="decimal" value={survey.stepText} aria-invalid={!step.ok}
             aria-describedby={`${stepId}-hint${step.ok ? '' : ` ${stepId}-msg`}`}
             onChange={(e) => survey.setStepText(e.target.value)} />
-          <span className="hint" id={`${stepId}-hint`}>1–15 (15 is quick; 5 takes minutes)</span>
+          <span className="hint" id={`${stepId}-hint`}>1–15; the estimate below is for the step typed</span>
           {!step.ok && <span className="field-msg" id={`${stepId}-msg`} role="alert" data-testid="survey-step-msg">{step.message}</span>}
         </div>
         <div className="field">
@@ -154,19 +157,27 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
       <p className="survey-status" aria-live="polite" data-testid="survey-estimate">
         {!scenario ? (
           <span className="warn">Fix the marked fields in the scenario panel to run a survey.</span>
+        ) : survey.running ? (
+          <span data-testid="survey-live" data-left-s={live?.secondsLeft} data-elapsed-ms={survey.elapsedMs}>
+            {live
+              ? <>Measured so far: about {Number(live.msPerSite.toPrecision(2))} ms a site per worker over {live.sitesDone.toLocaleString('en-US')} of {survey.runSites.toLocaleString('en-US')} sites; {secondsText(live.secondsLeft)} left.</>
+              : <>Measuring the time per site over the first sites…</>}
+            {' '}The page stays usable meanwhile.
+          </span>
         ) : est ? (
-          <span>
+          <span data-ms-per-site={est.msPerSite} data-wall-s={est.wallSeconds} data-calibrated={est.calibrated ? '1' : '0'}>
             Estimate: {est.sites.toLocaleString('en-US')} sites ({est.nLat} latitudes × {est.nLon} longitudes, every{' '}
             {Number(est.latStepDeg.toPrecision(3))}° × {Number(est.lonStepDeg.toPrecision(3))}°) × about {Number(est.msPerSite.toPrecision(2))} ms a site
+            {' '}({est.calibrated ? 'scaled by the last survey measured on this computer' : 'from timings on a reference 2-core machine'})
             {' '}= {secondsText(est.cpuSeconds)} of computing, {secondsText(est.wallSeconds)} on {survey.workers} worker{survey.workers === 1 ? '' : 's'}.
-            {' '}The page stays usable meanwhile.
+            {' '}While it runs, the time left is measured.
           </span>
         ) : null}
         {survey.cancelled && !survey.running && <span> Survey cancelled; the previous layer is kept.</span>}
         {survey.error && <span className="error" role="alert" data-testid="survey-error"> {survey.error}</span>}
       </p>
       {done && layer && (
-        <div className="survey-result" data-testid="survey-result" data-sites={done.run.result.sites.length}
+        <div className="survey-result" data-testid="survey-result" data-sites={done.run.result.sites.length} data-ms={done.ms}
           data-figure={layer.figure} data-min={layer.min} data-max={layer.max}>
           <p className="survey-done">
             Computed {done.run.result.sites.length.toLocaleString('en-US')} sites at a {done.stepDeg}° step in {(done.ms / 1000).toFixed(1)} s

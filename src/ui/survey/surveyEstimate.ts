@@ -2,18 +2,45 @@ import type { Scenario } from '../../core/types';
 import { estimateRun } from '../../core/limits';
 import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core/survey';
 
-// What a survey will cost, stated before it runs: the number of sites times a
-// time per site. The time per site is a fit to computeSurvey in Node on this
-// project's shared 2-core development machine (2026-12-01, one frequency as
-// the panel runs it, JIT warm, 24 to 96 sites spread over the grid): 3.5 ms a
-// site for one synodic month at nside 64 (925 samples), 30 ms for one year at
-// nside 128 (22,927 samples), 40 ms for the two-year demo at nside 128 (45,790
-// samples). The model gives 5.8, 30.5 and 40.8 ms. A planning figure, within
-// about a factor of two; after a run the panel states the measured time.
+// What a survey will cost, stated before it runs and corrected while it runs.
+//
+// Before: the number of sites times a time per site from the scenario's
+// sample count. The constants are a fit to computeSurvey in Node, one thread,
+// one frequency as the panel runs it, JIT warm, a whole 15-degree grid (288
+// sites), CPU time per site (scripts/survey-timing.ts, 2026-12-02, on this
+// project's shared 2-core machine): Moon 2.9 ms a site at 1,850 samples,
+// 8.1 ms at 22,927, 15.5 ms at 45,790 (the demo); Mars 72.6 ms at 633,169;
+// Earth 74.6 ms at 593,145. The fit gives 2.1, 8.4, 15.2, 71.1 and 72.7 ms.
+// A site's sample step is shorter on the Earth and Mars (the sky turns
+// faster), and a short step costs less per sample.
+//
+// Once a survey has run on this computer, the ratio of its measured time to
+// the fit scales later estimates (the browser, its load and its workers are
+// then in the figure). While a survey runs, the panel states the rate
+// measured over the sites done so far and the time left.
 
-export const SURVEY_MS_PER_SITE_BASE = 0.5;
-export const SURVEY_MS_PER_SITE_PER_SAMPLE = 4.5e-4;
-export const SURVEY_MS_PER_SITE_PER_PIXEL = 1e-4;
+export const SURVEY_MS_PER_SITE_BASE = 1.5;
+export const SURVEY_MS_PER_SITE_PER_SAMPLE: Record<Scenario['site']['body'], number> = { moon: 3.0e-4, mars: 1.1e-4, earth: 1.2e-4 };
+
+/** The fitted time per site (ms, one thread) for a scenario. */
+export function modelMsPerSite(s: Scenario): number {
+  return SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE[s.site.body] * estimateRun(s).samples;
+}
+
+/** Measured time over fitted time, from a finished survey: ms of worker time per site / the fit. */
+export function calibrationRatio(s: Scenario, sites: number, wallMs: number, workers: number): number | null {
+  if (!(sites > 0 && wallMs > 0 && workers > 0)) return null;
+  const r = (wallMs * workers) / sites / modelMsPerSite(s);
+  return Number.isFinite(r) && r > 0 ? r : null;
+}
+
+/** While running: the rate over the sites done so far and the time left (null until enough is done to say). */
+export function liveRate(fraction: number, elapsedMs: number, sites: number, workers: number): { msPerSite: number; secondsLeft: number; sitesDone: number } | null {
+  // wait for a few sites and half a second: the first slice includes the shared set-up
+  const done = fraction * sites;
+  if (!(fraction > 0 && fraction < 1 && elapsedMs >= 500 && done >= Math.min(8, sites / 10))) return null;
+  return { msPerSite: (elapsedMs * workers) / done, secondsLeft: (elapsedMs * (1 - fraction)) / fraction / 1000, sitesDone: Math.floor(done) };
+}
 
 export type StepCheck = { ok: true; step: number } | { ok: false; message: string };
 
@@ -38,21 +65,22 @@ export interface SurveyEstimate {
   latStepDeg: number;
   lonStepDeg: number;
   msPerSite: number;
+  /** true when msPerSite is scaled by a survey measured on this computer */
+  calibrated: boolean;
   /** CPU seconds over all sites (one frequency) */
   cpuSeconds: number;
   /** wall seconds with `workers` workers in parallel (no better than the cores allow) */
   wallSeconds: number;
 }
 
-export function estimateSurvey(s: Scenario, stepDeg: number, workers: number): SurveyEstimate {
+/** `ratio`: a measured calibration (calibrationRatio of an earlier survey on this computer), or null for the fit alone. */
+export function estimateSurvey(s: Scenario, stepDeg: number, workers: number, ratio: number | null = null): SurveyEstimate {
   const g = surveyGrid(stepDeg);
-  const samples = estimateRun(s).samples;
-  const npix = 12 * s.map.nside * s.map.nside;
-  const msPerSite = SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE * samples + SURVEY_MS_PER_SITE_PER_PIXEL * npix;
+  const msPerSite = modelMsPerSite(s) * (ratio ?? 1);
   const cpuSeconds = (g.count * msPerSite) / 1000;
   return {
     sites: g.count, nLat: g.nLat, nLon: g.nLon, latStepDeg: g.lat_step_deg, lonStepDeg: g.lon_step_deg,
-    msPerSite, cpuSeconds, wallSeconds: cpuSeconds / Math.max(1, workers),
+    msPerSite, calibrated: ratio !== null, cpuSeconds, wallSeconds: cpuSeconds / Math.max(1, workers),
   };
 }
 

@@ -4,6 +4,21 @@ import { createSurveyEngine, type SurveyEngine } from '../../engine/surveyEngine
 import type { SurveyRun } from '../../engine/runSurvey';
 import type { SurveyFigure, SurveyLayer } from '../../core/surveyLayer';
 import { scenarioFingerprint } from '../../core/surveyCsv';
+import { surveyGrid } from '../../core/survey';
+import { browserStore } from '../state/persist';
+import { calibrationRatio } from './surveyEstimate';
+
+/** Where the measured survey rate of this computer is kept (a ratio to the fitted rate). */
+export const SURVEY_RATE_KEY = 'swathe.surveyRate/1';
+
+function readRatio(): number | null {
+  try {
+    const v = Number(JSON.parse(browserStore()?.getItem(SURVEY_RATE_KEY) ?? 'null')?.ratio);
+    return Number.isFinite(v) && v > 0.01 && v < 100 ? v : null;
+  } catch {
+    return null;
+  }
+}
 
 // The survey's state for the app: the options as typed, one run at a time in
 // Web Workers (createSurveyEngine), progress, cancel, and the layer of the
@@ -50,6 +65,12 @@ export interface SurveyState {
   /** true when the last run's scenario (apart from the site) differs from the current one */
   stale: boolean;
   workers: number;
+  /** ms since the running survey started, at its last progress report */
+  elapsedMs: number;
+  /** sites in the running survey */
+  runSites: number;
+  /** measured / fitted time per site, from the last survey finished on this computer (null: none yet) */
+  ratio: number | null;
   start: (s: Scenario, stepDeg: number, mhz: number) => void;
   cancel: () => void;
 }
@@ -72,6 +93,9 @@ export function useSurvey(current: Scenario | null): SurveyState {
   const engineRef = useRef<SurveyEngine | null>(null);
   const runId = useRef(0);
   const workers = useMemo(() => surveyWorkerCount(), []);
+  const [elapsedMs, setElapsedMs] = useState(0);
+  const [runSites, setRunSites] = useState(0);
+  const [ratio, setRatio] = useState<number | null>(() => readRatio());
 
   // Dispose the workers on a real unmount only (a StrictMode remount comes straight back).
   const mounted = useRef(false);
@@ -103,12 +127,26 @@ export function useSurvey(current: Scenario | null): SurveyState {
       return;
     }
     const t0 = performance.now();
-    engine.run(s, { stepDeg, frequenciesMhz: [f] }, (fr) => { if (id === runId.current) setFraction(fr); }).then(
+    const sites = surveyGrid(stepDeg).count;
+    setRunSites(sites);
+    setElapsedMs(0);
+    engine.run(s, { stepDeg, frequenciesMhz: [f] }, (fr) => {
+      if (id !== runId.current) return;
+      setFraction(fr);
+      setElapsedMs(performance.now() - t0);
+    }).then(
       (run) => {
         if (id !== runId.current) return;
+        const ms = performance.now() - t0;
         setRunning(false);
         setFraction(1);
-        setDone({ scenario: s, stepDeg, mhz: f, run, ms: performance.now() - t0, workers });
+        setDone({ scenario: s, stepDeg, mhz: f, run, ms, workers });
+        // the next estimate starts from what this computer measured
+        const r = calibrationRatio(s, run.result.sites.length, ms, workers);
+        if (r !== null) {
+          setRatio(r);
+          try { browserStore()?.setItem(SURVEY_RATE_KEY, JSON.stringify({ ratio: r, at: new Date().toISOString() })); } catch { /* storage full or off: kept for this session */ }
+        }
       },
       (e: unknown) => {
         if (id !== runId.current) return;
@@ -147,6 +185,6 @@ export function useSurvey(current: Scenario | null): SurveyState {
 
   return {
     stepText, setStepText, mhz, setMhz, figure, setFigure, showOnGlobe, setShowOnGlobe,
-    running, fraction, error, cancelled, done, layer, globeLayer, stale, workers, start, cancel,
+    running, fraction, error, cancelled, done, layer, globeLayer, stale, workers, elapsedMs, runSites, ratio, start, cancel,
   };
 }

@@ -1,0 +1,42 @@
+// Prints the measured cost of a site survey per site, in this process (one
+// thread, one frequency as the app's survey panel runs it), beside the panel's
+// pre-run estimate (src/ui/survey/surveyEstimate.ts). Not a test: nothing is
+// asserted. Used to fit the estimate's constants (issue 9 item 9).
+//
+//   npx tsx scripts/survey-timing.ts [--step 15]
+
+import { cpuUsage } from 'node:process';
+import { loadavg } from 'node:os';
+import { computeSurvey } from '../src/core/survey';
+import { estimateRun } from '../src/core/limits';
+import { DEMO_SCENARIO } from '../src/core/demo';
+import type { Scenario } from '../src/core/types';
+import { estimateSurvey } from '../src/ui/survey/surveyEstimate';
+
+const args = process.argv.slice(2);
+const step = Number(args[args.indexOf('--step') + 1] || 15) || 15;
+
+const D = DEMO_SCENARIO;
+const cases: [string, Scenario][] = [
+  ['demo (2 years, nside 128)', D],
+  ['one synodic month, nside 64', { ...D, span: { start: '2031-03-01T00:00:00Z', end: '2031-03-30T12:44:00Z', step_min: null }, map: { ...D.map, nside: 64 } }],
+  ['one year, nside 128', { ...D, span: { start: '2031-03-01T00:00:00Z', end: '2032-03-01T00:00:00Z', step_min: null } }],
+  ['Mars, one year, nside 128', { ...D, site: { body: 'mars', lat_deg: 18, lon_deg: 77 }, span: { start: '2031-03-01T00:00:00Z', end: '2032-03-01T00:00:00Z', step_min: null }, constraints: { ...D.constraints, earth_max_elev_deg: null } }],
+  ['Moon, one year, 2 MHz (wide beam)', { ...D, telescope: { ...D.telescope, frequencies_mhz: [2] }, span: { start: '2031-03-01T00:00:00Z', end: '2032-03-01T00:00:00Z', step_min: null } }],
+  ['Earth, one year, nside 128', { ...D, site: { body: 'earth', lat_deg: 30, lon_deg: 10 }, span: { start: '2031-03-01T00:00:00Z', end: '2032-03-01T00:00:00Z', step_min: null }, constraints: { ...D.constraints, earth_max_elev_deg: null } }],
+];
+
+console.log(`survey timing: ${step}-degree grid, one thread, load average ${loadavg()[0].toFixed(1)}`);
+for (const [name, s] of cases) {
+  const opts = { stepDeg: step, frequenciesMhz: [s.telescope.frequencies_mhz[0]] };
+  computeSurvey(s, { ...opts, sites: [0, 1, 2] }); // JIT warm-up
+  const c0 = cpuUsage();
+  const t0 = performance.now();
+  const r = computeSurvey(s, opts);
+  const wall = performance.now() - t0;
+  const c = cpuUsage(c0);
+  const cpuMs = (c.user + c.system) / 1000;
+  const n = r.sites.length;
+  const est = estimateSurvey(s, step, 1);
+  console.log(`  ${name}: ${estimateRun(s).samples} samples, ${n} sites: ${(cpuMs / n).toFixed(1)} ms CPU a site (${(wall / n).toFixed(1)} ms wall), estimate ${est.msPerSite.toFixed(1)} ms a site (${((est.msPerSite / (cpuMs / n) - 1) * 100).toFixed(0)}%)`);
+}

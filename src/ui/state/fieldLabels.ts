@@ -1,0 +1,98 @@
+import type { FieldIssue } from '../../core/types';
+
+// The scenario parser names fields by their file path (`span.step_min`,
+// `constraints.horizon_mask[1][1]`), which is right for a file and the CLI.
+// In the app the user sees labels, so each message is rewritten here to name
+// the label on screen; the range and the value the parser states are kept.
+
+/** Labels of the form's inputs, by the file path they edit (normalised: `a.b.2.c`). */
+const LABELS: Record<string, string> = {
+  name: 'Scenario name',
+  site: 'Site',
+  'site.body': 'Body',
+  'site.lat_deg': 'Latitude',
+  'site.lon_deg': 'Longitude',
+  span: 'Span',
+  'span.start': 'Start (UTC)',
+  'span.end': 'End (UTC)',
+  'span.step_min': 'Step (min)',
+  telescope: 'Telescope',
+  'telescope.aperture_m': 'Aperture (m)',
+  'telescope.beam': 'Beam',
+  'telescope.beam.model': 'Beam model',
+  'telescope.beam.fwhm_factor': 'FWHM factor k',
+  'telescope.frequencies_mhz': 'Frequencies',
+  'telescope.bandwidth_mhz': 'Bandwidth (MHz)',
+  'telescope.receiver_temp_k': 'Receiver temperature (K)',
+  // antenna fields kept from a loaded file (the form shows the model, not its parameters)
+  'telescope.beam.length_m': 'Beam length (m, from the loaded file)',
+  'telescope.beam.width_m': 'Beam width (m, from the loaded file)',
+  'telescope.beam.height_m': 'Dipole height (m, from the loaded file)',
+  'telescope.beam.axis_azimuth_deg': 'Beam axis azimuth (°, from the loaded file)',
+  'telescope.beam.table': 'Beam pattern table (from the loaded file)',
+  'telescope.pointing': 'Pointing (from the loaded file)',
+  'telescope.pointing.elevation_deg': 'Pointing elevation (°, from the loaded file)',
+  'telescope.pointing.azimuth_deg': 'Pointing azimuth (°, from the loaded file)',
+  'telescope.feeds': 'Extra beams (from the loaded file)',
+  'telescope.pointing_plan': 'Pointing plan (from the loaded file)',
+  constraints: 'Usable time',
+  'constraints.sun_max_elev_deg': 'Sun below (° elevation)',
+  'constraints.earth_max_elev_deg': 'Earth below (° elevation)',
+  'constraints.horizon_mask': 'Horizon mask',
+  'constraints.diffraction': 'Diffraction over the rim',
+  'constraints.diffraction.rim_distance_m': 'Rim distance (m)',
+  'constraints.diffraction.min_attenuation_db': 'Required attenuation (dB)',
+  'constraints.ionosphere': 'Ionosphere cut-off',
+  'constraints.ionosphere.day_mhz': 'Critical frequency by day (MHz)',
+  'constraints.ionosphere.night_mhz': 'Critical frequency by night (MHz)',
+  'constraints.sun_min_separation_deg': 'Sun from every beam at least (°)',
+  map: 'Map',
+  'map.nside': 'HEALPix nside',
+  'map.galactic_band_deg': 'Galactic band (°)',
+  'map.galactic_center_radius_deg': 'Centre radius (°)',
+};
+
+const MASK_PART = ['azimuth', 'elevation', 'rim distance'];
+
+/** Field paths normalised to dots: `a.b[2].c` -> `a.b.2.c`. */
+export function normPath(p: string): string {
+  return p.replace(/\[(\d+)\]/g, '.$1').replace(/^\./, '');
+}
+
+/** The on-screen label for a field path, or null when the form has none. */
+export function fieldLabel(path: string): string | null {
+  const p = normPath(path);
+  if (LABELS[p]) return LABELS[p];
+  let m = /^telescope\.frequencies_mhz\.(\d+)$/.exec(p);
+  if (m) return `Frequency ${Number(m[1]) + 1} (MHz)`;
+  m = /^constraints\.horizon_mask\.(\d+)(?:\.(\d))?$/.exec(p);
+  if (m) return `Mask point ${Number(m[1]) + 1}${m[2] !== undefined ? ` ${MASK_PART[Number(m[2])] ?? ''}`.trimEnd() : ''}`;
+  m = /^telescope\.feeds\.(\d+)(?:\.(\w+))?$/.exec(p);
+  if (m) return `Extra beam ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_deg$/, '').replace(/_/g, ' ')} (°)` : ''} (from the loaded file)`;
+  m = /^telescope\.pointing_plan\.(\d+)(?:\.(\w+))?$/.exec(p);
+  if (m) return `Pointing plan segment ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_deg$/, '').replace(/_/g, ' ')}` : ''} (from the loaded file)`;
+  if (p.startsWith('telescope.beam.table.')) return LABELS['telescope.beam.table'];
+  return null;
+}
+
+// A field path as the parser writes it, with the mask's "(azimuth)"-style suffix when present.
+const PATH_IN_TEXT = /\b[a-z_]+(?:\.[a-z_]+|\[\d+\])+(?: \((?:azimuth|elevation|rim distance)\))?/g;
+
+/** A parser message in the app's words: every field path it names becomes that field's label. */
+export function appMessage(message: string): string {
+  return message
+    .replace(PATH_IN_TEXT, (whole) => {
+      const path = whole.replace(/ \(.*\)$/, '');
+      const label = fieldLabel(path);
+      return label === null ? whole : `"${label}"`;
+    })
+    // file words for what the form shows as an empty box or an unticked row
+    .replace(/must be null \(automatic\) or/g, 'must be empty (automatic) or')
+    .replace(/must be null \(no constraint\) or/g, 'must be unticked (no constraint) or')
+    .replace(/, got ""$/, ', got an empty box');
+}
+
+/** The parser's issues with their messages in the app's words (fields unchanged, so they still find their inputs). */
+export function appIssues(issues: readonly FieldIssue[]): FieldIssue[] {
+  return issues.map((i) => ({ field: i.field, message: appMessage(i.message) }));
+}
