@@ -34,6 +34,7 @@ async function main(): Promise<void> {
         const est = panel.locator('[data-wall-s]');
         const estS = Number(await est.getAttribute('data-wall-s'));
         const calibrated = (await est.getAttribute('data-calibrated')) === '1';
+        const before = await panel.getByTestId('survey-result').getAttribute('data-ms', { timeout: 100 }).catch(() => null);
         await panel.getByRole('button', { name: 'Run survey' }).click();
         let projected = NaN;
         const live = panel.getByTestId('survey-live');
@@ -45,8 +46,11 @@ async function main(): Promise<void> {
           await page.waitForTimeout(100);
         }
         const res = panel.getByTestId('survey-result');
-        await res.waitFor({ timeout: 600_000 });
-        await page.waitForFunction(() => !document.querySelector('[data-testid="survey-live"]'));
+        // a new result: the previous run's stays on screen until this one replaces it
+        await page.waitForFunction((prev) => {
+          const el = document.querySelector('[data-testid="survey-result"]');
+          return !document.querySelector('[data-testid="survey-live"]') && el !== null && el.getAttribute('data-ms') !== prev;
+        }, before, { timeout: 600_000 });
         const real = Number(await res.getAttribute('data-ms')) / 1000;
         const pct = (x: number) => `${x.toFixed(1)} s (${((x / real - 1) * 100).toFixed(0)}%)`;
         console.log(`${name}, ${step}-degree grid, run ${run}: real ${real.toFixed(1)} s; estimate before ${pct(estS)} ${calibrated ? 'calibrated' : 'fitted'}; live projection at 20% ${Number.isFinite(projected) ? pct(projected) : 'n/a'}`);

@@ -4,7 +4,7 @@ import { DEMO_SCENARIO } from '../../src/core/demo';
 import { runPlan } from '../../src/engine/runPlan';
 import { cachedCoveredMasks, coveredMasks, engineMasks, outlineNside } from '../../src/ui/skymap/coverageOutline';
 import { noiseRange, noiseScale, NOISE_TOP_QUANTILE, colourBarOptions, colourBarTitle, formatViewValue } from '../../src/ui/skymap/figure';
-import { checkStep, estimateSurvey } from '../../src/ui/survey/surveyEstimate';
+import { calibrationRatio, checkStep, estimateSurvey, liveRate } from '../../src/ui/survey/surveyEstimate';
 import { layerValueText } from '../../src/ui/survey/SurveyPanel';
 
 // The app-side pieces of the survey and the noise map.
@@ -106,6 +106,25 @@ describe('survey step and estimate', () => {
     expect(e7.latStepDeg).toBeCloseTo(180 / 26, 12);
     expect(e7.cpuSeconds / e15.cpuSeconds).toBeCloseTo(e7.sites / e15.sites, 12);
     expect(e15.wallSeconds).toBeCloseTo(e15.cpuSeconds / 2, 12);
+  });
+
+  it('a measured survey calibrates the next estimate; a running one projects from its own rate', () => {
+    // a finished 15-degree survey: 288 sites in 5 s on 2 workers = 34.7 ms of worker time a site
+    const r = calibrationRatio(SHORT, 288, 5000, 2)!;
+    const e = estimateSurvey(SHORT, 15, 2, r);
+    expect(e.calibrated).toBe(true);
+    expect(e.msPerSite).toBeCloseTo((5000 * 2) / 288, 9);
+    expect(e.wallSeconds).toBeCloseTo(5, 9); // the same survey again is estimated at what it took
+    expect(estimateSurvey(SHORT, 5, 2, r).wallSeconds).toBeCloseTo((5 * 2592) / 288, 9);
+    expect(estimateSurvey(SHORT, 15, 2).calibrated).toBe(false);
+    expect(calibrationRatio(SHORT, 0, 5000, 2)).toBeNull();
+    // a quarter of 288 sites done in 2 s on 2 workers: 2000 ms x 2 / 72 sites, and 6 s left
+    const live = liveRate(0.25, 2000, 288, 2)!;
+    expect(live.msPerSite).toBeCloseTo(4000 / 72, 9);
+    expect(live.secondsLeft).toBeCloseTo(6, 9);
+    expect(live.sitesDone).toBe(72);
+    expect(liveRate(0.01, 2000, 288, 2)).toBeNull(); // 2.9 sites: too few to say
+    expect(liveRate(0.5, 100, 288, 2)).toBeNull(); // too soon
   });
 
   it('formats layer values with their unit', () => {
