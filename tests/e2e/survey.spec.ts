@@ -88,7 +88,8 @@ test('a coarse survey runs, colours the globe and the flat map, picks a site and
   // The median-noise figure: in kelvin, from the same run (no new survey); sites on the near side see nothing: no value.
   await panel.getByLabel('Figure shown').selectOption('noise_median_k');
   await expect(result).toHaveAttribute('data-figure', 'noise_median_k');
-  await expect(panel.getByTestId('survey-legend')).toContainText(' K');
+  await expect(panel.getByTestId('survey-legend')).toContainText(/\d (K|mK|µK|nK)\b/);
+  await expect(panel.getByTestId('survey-legend')).not.toContainText(/\de[-+]?\d/); // SI prefixes, not exponents
   await expect(panel.getByTestId('survey-legend')).toContainText('no value');
 
   // The CSV (swathe.survey/2): the column names first, one row per site in grid order; survey.json says what it holds.

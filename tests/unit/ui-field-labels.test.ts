@@ -66,3 +66,50 @@ describe('app messages name the on-screen label and the range', () => {
     expect(appMessage('use a point, e.g. 0.5, got "x"')).toBe('use a point, e.g. 0.5, got "x"');
   });
 });
+
+describe('shielding rows (issue 13): kept through edits, messages by label', () => {
+  const base = { ...DEMO_SCENARIO, site: { body: 'earth' as const, lat_deg: 30, lon_deg: 10 },
+    constraints: { ...DEMO_SCENARIO.constraints, earth_max_elev_deg: null, horizon_mask: [[0, 5], [180, 8]] as [number, number][],
+      diffraction: { rim_distance_m: 600, min_attenuation_db: 15 }, ionosphere: { day_mhz: 9, night_mhz: 2.5 }, sun_min_separation_deg: 40 } };
+
+  it('a loaded scenario\'s shielding fields survive an edit elsewhere', () => {
+    const d = { ...scenarioToDraft(base), lat: '31' };
+    const r = parseScenario(draftToCandidate(d));
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.scenario.constraints.diffraction).toEqual({ rim_distance_m: 600, min_attenuation_db: 15 });
+    expect(r.scenario.constraints.ionosphere).toEqual({ day_mhz: 9, night_mhz: 2.5 });
+    expect(r.scenario.constraints.sun_min_separation_deg).toBe(40);
+    expect(r.scenario.site.lat_deg).toBe(31);
+  });
+
+  it('a rim distance on every mask point is kept (and the single one stays unset)', () => {
+    const s = { ...base, constraints: { ...base.constraints, horizon_mask: [[0, 5, 700], [180, 8, 900]] as [number, number, number][], diffraction: { rim_distance_m: null, min_attenuation_db: 20 } } };
+    const r = parseScenario(draftToCandidate({ ...scenarioToDraft(s), name: 'edited' }));
+    expect(r.ok).toBe(true);
+    if (r.ok) {
+      expect(r.scenario.constraints.horizon_mask).toEqual([[0, 5, 700], [180, 8, 900]]);
+      expect(r.scenario.constraints.diffraction).toEqual({ rim_distance_m: null, min_attenuation_db: 20 });
+    }
+  });
+
+  it('bad rim distance, attenuation, critical frequency and Sun angle are named by their labels with the range', () => {
+    const d = { ...scenarioToDraft(base), rimM: '0', attDb: '250', ionoDay: '45', sepDeg: '-1' };
+    const r = parseScenario(draftToCandidate(d));
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    const app = new IssueIndex(appIssues(r.issues));
+    expect(app.get('constraints.diffraction.rim_distance_m').join(' ')).toMatch(/^"Rim distance \(m\)" must be a number of metres greater than 0 and at most 1000000, got 0$/);
+    expect(app.get('constraints.diffraction.min_attenuation_db').join(' ')).toBe('"Required attenuation (dB)" must be between 0 and 200, got 250');
+    expect(app.get('constraints.ionosphere.day_mhz').join(' ')).toBe('"Critical frequency by day (MHz)" must be between 0 and 30, got 45');
+    expect(app.get('constraints.sun_min_separation_deg').join(' ')).toBe('"Sun from every beam at least (°)" must be between 0 and 180, got -1');
+  });
+
+  it('unticked rows leave the scenario without them; a Moon site never sends an ionosphere', () => {
+    const d = { ...scenarioToDraft(base), diffOn: false, sepOn: false, body: 'moon' as const };
+    const c = draftToCandidate(d) as { constraints: Record<string, unknown> };
+    expect(Object.keys(c.constraints)).not.toContain('diffraction');
+    expect(Object.keys(c.constraints)).not.toContain('ionosphere');
+    expect(Object.keys(c.constraints)).not.toContain('sun_min_separation_deg');
+  });
+});

@@ -1,6 +1,6 @@
 import { useRef, useState } from 'react';
 import type { Draft, IssueIndex } from '../state/draft';
-import { newId } from '../state/draft';
+import { maskHasRims, newId } from '../state/draft';
 import { parseHorizonCsv } from '../../core/horizonCsv';
 
 // Horizon mask: a list of (azimuth, elevation) points, edited in place or
@@ -14,7 +14,8 @@ export function HorizonMask({ draft, issues, onChange }: {
   const fileRef = useRef<HTMLInputElement>(null);
   const [csvMsg, setCsvMsg] = useState<string | null>(null);
   const msgs = issues.get('constraints.horizon_mask');
-  const setPt = (i: number, k: 'az' | 'el', v: string) =>
+  const rims = maskHasRims(draft);
+  const setPt = (i: number, k: 'az' | 'el' | 'rim', v: string) =>
     onChange({ mask: draft.mask.map((p, j) => (j === i ? { ...p, [k]: v } : p)) });
 
   const load = async (file: File) => {
@@ -44,13 +45,14 @@ export function HorizonMask({ draft, issues, onChange }: {
         <>
           <table className="mask-table">
             <thead>
-              <tr><th scope="col">Azimuth (°, N→E)</th><th scope="col">Elevation (°)</th><th scope="col"><span className="sr-only">Remove</span></th></tr>
+              <tr><th scope="col">Azimuth (°, N→E)</th><th scope="col">Elevation (°)</th>{rims && <th scope="col">Rim distance (m)</th>}<th scope="col"><span className="sr-only">Remove</span></th></tr>
             </thead>
             <tbody>
               {draft.mask.map((p, i) => (
                 <tr key={p.id}>
                   <td><input aria-label={`Mask point ${i + 1} azimuth (degrees)`} inputMode="decimal" value={p.az} onChange={(e) => setPt(i, 'az', e.target.value)} /></td>
                   <td><input aria-label={`Mask point ${i + 1} elevation (degrees)`} inputMode="decimal" value={p.el} onChange={(e) => setPt(i, 'el', e.target.value)} /></td>
+                  {rims && <td><input aria-label={`Mask point ${i + 1} rim distance (metres)`} inputMode="decimal" value={p.rim ?? ''} onChange={(e) => setPt(i, 'rim', e.target.value)} /></td>}
                   <td><button type="button" className="icon" aria-label={`Remove mask point ${i + 1}`} onClick={() => onChange({ mask: draft.mask.filter((_, j) => j !== i) })}>×</button></td>
                 </tr>
               ))}
@@ -60,14 +62,14 @@ export function HorizonMask({ draft, issues, onChange }: {
             <button type="button" className="small" onClick={() => {
               const last = draft.mask[draft.mask.length - 1];
               const az = last ? Math.min(359, Number(last.az) + 45) : 0;
-              onChange({ mask: [...draft.mask, { id: newId(), az: String(Number.isFinite(az) ? az : 0), el: last ? last.el : '0' }] });
+              onChange({ mask: [...draft.mask, { id: newId(), az: String(Number.isFinite(az) ? az : 0), el: last ? last.el : '0', ...(rims ? { rim: last?.rim ?? '' } : {}) }] });
             }}>Add point</button>
             <button type="button" className="small" onClick={() => fileRef.current?.click()}>Load mask CSV…</button>
             <input ref={fileRef} type="file" accept=".csv,text/csv,text/plain" className="hidden-file" aria-label="Horizon mask CSV file"
               tabIndex={-1}
               onChange={(e) => { const f = e.target.files?.[0]; if (f) void load(f); e.target.value = ''; }} />
           </div>
-          <p className="hint">CSV: two columns, azimuth and elevation in degrees (azimuth from north through east); interpolated linearly around the circle.</p>
+          <p className="hint">CSV: two columns, azimuth and elevation in degrees (azimuth from north through east); interpolated linearly around the circle.{rims ? ' The rim distance per point came with the loaded scenario; it is interpolated the same way.' : ''}</p>
         </>
       )}
       {csvMsg && <p className="hint" role="status">{csvMsg}</p>}

@@ -5,6 +5,7 @@ import { SHOWN_FIELDS } from '../state/draft';
 import { Field } from './Field';
 import { FrequencyList } from './FrequencyList';
 import { HorizonMask } from './HorizonMask';
+import { ShieldingFields } from './ShieldingFields';
 import { SensitivityFields } from '../sensitivity/SensitivityFields';
 
 // The scenario form. It edits the draft (text as typed); validation comes from
@@ -136,6 +137,7 @@ export function ScenarioPanel({ draft, issues, onChange }: {
           messages={issues.get('constraints.earth_max_elev_deg')}
           onToggle={(v) => onChange({ earthOn: v })} onValue={(v) => onChange({ earthMax: v })} />
         <HorizonMask draft={draft} issues={issues} onChange={onChange} />
+        <ShieldingFields draft={draft} issues={issues} onChange={onChange} />
       </fieldset>
 
       <fieldset>

@@ -9,10 +9,14 @@ import { summaryHours } from '../../core/export/summary';
 export function ResultsTable({ result, selected, onSelect }: { result: PlanResult; selected: number; onSelect: (i: number) => void }) {
   const s = result.summary;
   const capId = useId();
+  // issue 13: usable time per frequency, beside what geometric shielding alone would give
+  const diffraction = result.scenario.constraints.diffraction !== undefined;
+  const perFreq = s.frequencies.some((f) => f.usable_hours !== undefined && f.usable_hours !== s.hours.usable);
+  const notes = s.frequencies.map((f, i) => ({ f, i })).filter(({ f }) => f.usable_note);
   return (
     <div>
       <p className="table-cap" id={capId}>
-        Per-frequency coverage over {hours(s.hours.total)} h of span, {hours(s.hours.usable)} h usable
+        Per-frequency coverage over {hours(s.hours.total)} h of span, {hours(s.hours.usable)} h usable{perFreq ? ' at one frequency at least' : ''}
       </p>
       <ScrollCue labelledBy={capId} testId="results-scroll">
       <table className="results" data-testid="results-table" aria-labelledby={capId}>
@@ -22,6 +26,9 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
             <th scope="col">Wavelength</th>
             <th scope="col">21-cm redshift z</th>
             <th scope="col">FWHM</th>
+            <th scope="col" title={diffraction ? 'Usable hours at this frequency, with the hours the horizon mask would give as a perfect shield (no diffraction) beside them' : 'Usable hours at this frequency'}>
+              Usable{diffraction ? ' (geometric shielding alone)' : ''}
+            </th>
             <th scope="col">Sky covered</th>
             <th scope="col">Median exposure (covered)</th>
             <th scope="col">Max exposure</th>
@@ -54,6 +61,11 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               <td>{wavelength(f.wavelength_m)}</td>
               <td>{fixed(f.redshift_21cm, 1)}</td>
               <td>{sig(f.fwhm_deg, 3)}°</td>
+              <td data-testid={`usable-cell-${i}`} data-usable={f.usable_hours ?? s.hours.usable} data-geometric={f.usable_hours_geometric ?? ''} className="nowrap">
+                {hours(f.usable_hours ?? s.hours.usable)} h
+                {diffraction && f.usable_hours_geometric !== undefined && <span className="muted"> ({hours(f.usable_hours_geometric)} h)</span>}
+                {f.usable_note && <sup><a href={`#${capId}-note-${i}`} aria-label="why this frequency loses time" title={f.usable_note}>†</a></sup>}
+              </td>
               <td>{percent(f.sky_fraction_covered)}</td>
               <td>{hours(f.exposure_median_h_covered)} h</td>
               <td>{hours(f.exposure_max_h)} h</td>
@@ -65,6 +77,19 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
         </tbody>
       </table>
       </ScrollCue>
+      {notes.length > 0 && (
+        <ul className="table-note usable-notes" data-testid="usable-notes">
+          {notes.map(({ f, i }) => <li key={i} id={`${capId}-note-${i}`}>† {sig(f.mhz, 6)} MHz: {f.usable_note}.</li>)}
+        </ul>
+      )}
+      {diffraction && (
+        <p className="table-note">
+          Usable hours count the Sun{s.hours.earth_down !== null ? ' and the Earth' : ''} behind the rim as shielded only while the knife-edge loss over the
+          rim (ITU-R P.526, single knife edge, rim {result.scenario.constraints.diffraction!.rim_distance_m === null ? 'distance per mask point' : `${result.scenario.constraints.diffraction!.rim_distance_m} m away`})
+          reaches {result.scenario.constraints.diffraction!.min_attenuation_db} dB; in brackets, the mask as a perfect shield. Diffraction around
+          the body's limb is not modelled.
+        </p>
+      )}
       <p className="table-note">
         Zenith declination {fixed(s.zenith.dec_min_deg, 2)}° to {fixed(s.zenith.dec_max_deg, 2)}°; ecliptic latitude{' '}
         {fixed(s.zenith.ecl_lat_min_deg, 2)}° to {fixed(s.zenith.ecl_lat_max_deg, 2)}°. Sun down {hours(s.hours.sun_down)} h

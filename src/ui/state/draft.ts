@@ -1,6 +1,7 @@
 import type { BeamModel, BodyName, FieldIssue, Scenario } from '../../core/types';
 import { HI_REST_MHZ } from '../../core/beam';
 import { formNumber } from '../../core/scenario';
+import { IONOSPHERE_TYPICAL_MHZ } from '../../core/shielding/plasma';
 import { normPath } from './fieldLabels';
 
 // The form keeps what the user typed as text (a "draft"), so nothing typed is
@@ -34,7 +35,19 @@ export interface Draft {
   earthOn: boolean;
   earthMax: string;
   maskOn: boolean;
-  mask: { id: number; az: string; el: string }[];
+  /** `rim`: the point's rim distance (m), kept when the loaded mask had a third column */
+  mask: { id: number; az: string; el: string; rim?: string }[];
+  /** constraints.diffraction (issue 13): on/off, one rim distance (m; ignored when the mask gives one per point), required attenuation (dB) */
+  diffOn?: boolean;
+  rimM?: string;
+  attDb?: string;
+  /** constraints.ionosphere (Earth and Mars sites): critical frequencies by day and night, MHz */
+  ionoOn?: boolean;
+  ionoDay?: string;
+  ionoNight?: string;
+  /** constraints.sun_min_separation_deg: the Sun's centre at least this far from every boresight */
+  sepOn?: boolean;
+  sepDeg?: string;
   nside: string;
   band: string;
   centre: string;
@@ -86,7 +99,15 @@ export function scenarioToDraft(s: Scenario): Draft {
     earthOn: s.constraints.earth_max_elev_deg !== null,
     earthMax: num(s.constraints.earth_max_elev_deg ?? 0),
     maskOn: s.constraints.horizon_mask !== null,
-    mask: (s.constraints.horizon_mask ?? []).map(([az, el]) => ({ id: newId(), az: num(az), el: num(el) })),
+    mask: (s.constraints.horizon_mask ?? []).map((p) => ({ id: newId(), az: num(p[0]), el: num(p[1]), ...(p.length === 3 ? { rim: num(p[2]) } : {}) })),
+    diffOn: s.constraints.diffraction !== undefined,
+    rimM: s.constraints.diffraction?.rim_distance_m == null ? DRAFT_DEFAULTS.rimM : num(s.constraints.diffraction.rim_distance_m),
+    attDb: num(s.constraints.diffraction?.min_attenuation_db ?? Number(DRAFT_DEFAULTS.attDb)),
+    ionoOn: s.constraints.ionosphere !== undefined,
+    ionoDay: num(s.constraints.ionosphere?.day_mhz ?? IONOSPHERE_TYPICAL_MHZ[s.site.body]?.day_mhz ?? 10),
+    ionoNight: num(s.constraints.ionosphere?.night_mhz ?? IONOSPHERE_TYPICAL_MHZ[s.site.body]?.night_mhz ?? 3),
+    sepOn: s.constraints.sun_min_separation_deg !== undefined,
+    sepDeg: s.constraints.sun_min_separation_deg === undefined ? DRAFT_DEFAULTS.sepDeg : num(s.constraints.sun_min_separation_deg),
     nside: num(s.map.nside),
     band: num(s.map.galactic_band_deg),
     centre: num(s.map.galactic_center_radius_deg),
@@ -106,6 +127,14 @@ export function freqRowMhz(r: FreqRow): number | string {
   if (typeof z !== 'number') return r.z;
   if (z <= -1) return `z = ${r.z}`; // no positive frequency: let the parser name the field
   return mhzFromZ(z);
+}
+
+/** Starting values of the shielding rows when a scenario does not set them (an invented crater rim). */
+export const DRAFT_DEFAULTS = { rimM: '600', attDb: '15', sepDeg: '30' } as const;
+
+/** True when the mask carries a rim distance on its points (then the single rim distance is not used). */
+export function maskHasRims(d: Pick<Draft, 'maskOn' | 'mask'>): boolean {
+  return d.maskOn && d.mask.length > 0 && d.mask.some((p) => p.rim !== undefined);
 }
 
 export function draftToCandidate(d: Draft): unknown {
@@ -129,7 +158,10 @@ export function draftToCandidate(d: Draft): unknown {
     constraints: {
       sun_max_elev_deg: d.sunOn ? numOrText(d.sunMax) : null,
       earth_max_elev_deg: d.body === 'earth' || !d.earthOn ? null : numOrText(d.earthMax),
-      horizon_mask: d.maskOn ? d.mask.map((p) => [numOrText(p.az), numOrText(p.el)]) : null,
+      horizon_mask: d.maskOn ? d.mask.map((p) => (p.rim !== undefined ? [numOrText(p.az), numOrText(p.el), numOrText(p.rim)] : [numOrText(p.az), numOrText(p.el)])) : null,
+      ...(d.diffOn ? { diffraction: { rim_distance_m: maskHasRims(d) ? null : numOrText(d.rimM ?? ''), min_attenuation_db: numOrText(d.attDb ?? '') } } : {}),
+      ...(d.ionoOn && d.body !== 'moon' ? { ionosphere: { day_mhz: numOrText(d.ionoDay ?? ''), night_mhz: numOrText(d.ionoNight ?? '') } } : {}),
+      ...(d.sepOn ? { sun_min_separation_deg: numOrText(d.sepDeg ?? '') } : {}),
     },
     map: { nside: numOrText(d.nside), galactic_band_deg: numOrText(d.band), galactic_center_radius_deg: numOrText(d.centre) },
   };
@@ -161,5 +193,6 @@ export const SHOWN_FIELDS = [
   'name', 'site.body', 'site.lat_deg', 'site.lon_deg', 'span.start', 'span.end', 'span.step_min',
   'telescope.aperture_m', 'telescope.beam.model', 'telescope.bandwidth_mhz', 'telescope.receiver_temp_k', 'telescope.beam.fwhm_factor', 'telescope.frequencies_mhz',
   'constraints.sun_max_elev_deg', 'constraints.earth_max_elev_deg', 'constraints.horizon_mask',
+  'constraints.diffraction', 'constraints.ionosphere', 'constraints.sun_min_separation_deg',
   'map.nside', 'map.galactic_band_deg', 'map.galactic_center_radius_deg',
 ] as const;
