@@ -1,7 +1,7 @@
 // `npm run bench` prints the benchmark figures, each measured side by side in
 // this one run; `npm run bench -- --json` also prints, as its last line, one
 // JSON object {"scenarios":[{name, fast_s, naive_s, floor_s, ratio,
-// fast_over_floor, max_rel_dev}]} for the coverage scenarios.
+// fast_over_floor, max_rel_dev}], "antenna": [...], "survey": {...}}.
 
 import { benchCoverage } from './coverage';
 
@@ -24,8 +24,9 @@ async function main(): Promise<void> {
   console.log(`swathe benchmark, node ${process.version}, ${new Date().toISOString()}`);
   for (const l of await ephemerisLines()) console.log(l);
   const cov = await benchCoverage((l) => console.log(l));
+  const antenna = await (await import('./antenna')).benchAntenna((l) => console.log(l)); // issue 11 item 8
   const survey = await (await import('./survey')).benchSurvey((l) => console.log(l)); // issue 5 item 1
-  if (json) console.log(JSON.stringify({ scenarios: cov.scenarios, survey: survey.result }));
+  if (json) console.log(JSON.stringify({ scenarios: cov.scenarios, antenna: antenna.rows, survey: survey.result }));
 }
 
 main().catch((e) => {

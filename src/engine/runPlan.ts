@@ -20,7 +20,7 @@ import { frequencySummary, SENSITIVITY_DEFAULTS, sensitivityFor, SKY_MODEL_LABEL
 import { stepMin } from '../core/time';
 import { macrotask } from './macrotask';
 import { antennaBeam, beamFiguresFor, beamWidthRad, horizonFrames, isPlainZenithDish, sampleSegments, segmentsOf } from '../core/antenna';
-import { bandHours, coarsenBins, coveredFromBins, exposureFromBins, exposureNsideFor, frameBinsStage, COVER_BIN_PER_WIDTH, type FrameBins } from '../core/antenna/exposure';
+import { spinCoverageStage, type SpinJob } from '../core/antenna/spin';
 import type { SegmentSummary } from '../core/types';
 
 export type ProgressFn = (stage: string, fraction: number) => void;
@@ -220,32 +220,32 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   }
   d.report('exposure', 1);
   } else {
-    // Any other antenna (antenna/exposure.ts): time binned by the local frame on the sky, per plan segment
+    // Any other antenna (antenna/spin.ts): usable time binned by the turn about the pole, per plan segment and frequency
     const frames = horizonFrames(track, s.site.lon_deg);
     const segs = segmentsOf(s);
     const segOf = sampleSegments(track, segs);
+    const beamsBySeg = segs.map((_, g) => s.telescope.frequencies_mhz.map((f) => antennaBeam(s, f, g)));
+    const jobs: SpinJob[] = [];
+    for (let g = 0; g < segs.length; g++)
+      for (let k = 0; k < nf; k++) {
+        const uk = usableByFreq[k];
+        jobs.push({ beam: beamsBySeg[g][k], pick: (i: number) => uk[i] === 1 && segOf[i] === g });
+      }
+    d.report('hits', 0);
+    const spun = await d.run('exposure', spinCoverageStage(track, frames, jobs, nside, s.map.galactic_band_deg, s.map.galactic_center_radius_deg));
     const acc = s.telescope.frequencies_mhz.map(() => new Float64Array(12 * nside * nside));
     const cov = s.telescope.frequencies_mhz.map(() => new Uint8Array(12 * nside * nside));
     const inBand = new Float64Array(nf), nearCentre = new Float64Array(nf);
     const perSeg: { maps: Float64Array[]; covered: Uint8Array[]; hours: number }[] = [];
-    d.report('hits', 0);
     for (let g = 0; g < segs.length; g++) {
-      const beams = s.telescope.frequencies_mhz.map((f) => antennaBeam(s, f, g));
       const segMaps: Float64Array[] = [], segCov: Uint8Array[] = [];
       let segHours = 0;
       for (let k = 0; k < nf; k++) {
-        const uk = usableByFreq[k];
-        const pick = (i: number) => uk[i] === 1 && segOf[i] === g;
-        const lo = (g + k / nf) / segs.length, hi = (g + (k + 1) / nf) / segs.length;
-        const bins: FrameBins = await d.run('hits', frameBinsStage(track, frames, pick, exposureNsideFor(beams[k], COVER_BIN_PER_WIDTH)), lo, lo);
-        segHours = Math.max(segHours, bins.totalHours);
-        const m = await d.run('exposure', exposureFromBins(coarsenBins(bins, exposureNsideFor(beams[k])), beams[k], nside), lo, (lo + hi) / 2);
-        const c = await d.run('exposure', coveredFromBins(bins, beams[k], nside), (lo + hi) / 2, hi);
-        for (let q = 0; q < m.length; q++) { acc[k][q] += m[q]; cov[k][q] |= c[q]; }
-        const bh = bandHours(track, frames, pick, beams[k], s.map.galactic_band_deg, s.map.galactic_center_radius_deg);
-        inBand[k] += bh.inBand; nearCentre[k] += bh.nearCentre;
-        segMaps.push(m); segCov.push(c);
-        await d.maybeTurn('exposure', hi);
+        const r = spun[g * nf + k];
+        for (let q = 0; q < r.map.length; q++) { acc[k][q] += r.map[q]; cov[k][q] |= r.covered[q]; }
+        inBand[k] += r.inBand; nearCentre[k] += r.nearCentre;
+        segHours = Math.max(segHours, r.hours);
+        segMaps.push(r.map); segCov.push(r.covered);
       }
       perSeg.push({ maps: segMaps, covered: segCov, hours: segHours });
     }

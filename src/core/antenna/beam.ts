@@ -14,7 +14,7 @@ const DEG = Math.PI / 180;
 const HALF_PI = Math.PI / 2;
 
 export interface BeamFigures {
-  /** half-power widths in the two principal planes (degrees), larger first; capped at 180 */
+  /** half-power widths in the two principal planes (degrees), larger first; 360 in a plane where the power never falls to half */
   fwhm_major_deg: number;
   fwhm_minor_deg: number;
   /** geometric mean of the two (the summary's fwhm_deg for a non-circular beam) */
@@ -65,10 +65,11 @@ export function feedPower(f: Feed, x: number, y: number, z: number, tmp = new Fl
 
 /**
  * Integral of g over the cap of radius `cap` around the frame's z' axis, midpoint
- * rule in (theta', phi'): fine enough for the narrowest width given.
+ * rule in (theta', phi') with 16 rows per narrowest width (for a smooth beam the
+ * midpoint rule converges far faster than that spacing needs).
  */
 export function integrateCap(frame: Frame3, cap: number, narrowRad: number, g: (x: number, y: number, z: number) => number): number {
-  const nt = Math.min(2000, Math.max(200, Math.ceil((cap / narrowRad) * 40)));
+  const nt = Math.min(2000, Math.max(200, Math.ceil((cap / narrowRad) * 16)));
   const np = 720;
   const dt = cap / nt, dp = (2 * Math.PI) / np;
   const sp = new Float64Array(np), cp = new Float64Array(np);
@@ -90,22 +91,35 @@ export function integrateCap(frame: Frame3, cap: number, narrowRad: number, g: (
   return sum * dt * dp;
 }
 
-/** Half-power width along the great circle through z' at antenna-frame azimuth a, within the front half-space; degrees. */
+/**
+ * Half-power width along the great circle through z' at antenna-frame azimuth
+ * a, degrees: within the front half-space, or the whole circle for a pattern
+ * with power behind it (p.back). 360 when the cut never falls to half power:
+ * a dipole with no ground plane is the same in every direction of its H-plane.
+ */
 export function cutWidthDeg(p: FeedPattern, a: number): number {
   const sa = Math.sin(a), ca = Math.cos(a);
   const at = (t: number) => p.power(Math.sin(t) * sa, Math.sin(t) * ca, Math.cos(t));
-  const N = 3600;
-  const h = Math.PI / N; // t from -pi/2 to pi/2
+  const span = p.back ? 2 * Math.PI : Math.PI;
+  const N = p.back ? 7200 : 3600;
+  const h = span / N; // t from -span/2 to span/2
+  const t0 = -span / 2;
   let best = -1, bi = 0;
   const vals = new Float64Array(N + 1);
-  for (let i = 0; i <= N; i++) { vals[i] = at(-HALF_PI + i * h); if (vals[i] > best) { best = vals[i]; bi = i; } }
+  // the lobe measured is the strongest in the front half-space (a back lobe may tie with it)
+  for (let i = 0; i <= N; i++) { vals[i] = at(t0 + i * h); if (vals[i] > best && Math.abs(t0 + i * h) <= Math.PI / 2 + 1e-12) { best = vals[i]; bi = i; } }
   if (!(best > 0)) return 0;
   const half = 0.5 * best;
+  if (p.back) {
+    let min = Infinity;
+    for (let i = 0; i <= N; i++) min = Math.min(min, vals[i]);
+    if (min >= half) return 360;
+  }
   const edge = (dir: number): number => {
     let i = bi;
     while (i + dir >= 0 && i + dir <= N && vals[i + dir] >= half) i += dir;
-    if (i + dir < 0 || i + dir > N) return -HALF_PI + i * h;
-    let lo = -HALF_PI + i * h, hi = -HALF_PI + (i + dir) * h;
+    if (i + dir < 0 || i + dir > N) return t0 + i * h;
+    let lo = t0 + i * h, hi = t0 + (i + dir) * h;
     for (let k = 0; k < 40; k++) { const m = 0.5 * (lo + hi); if (at(m) >= half) lo = m; else hi = m; }
     return 0.5 * (lo + hi);
   };

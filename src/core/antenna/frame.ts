@@ -26,6 +26,8 @@ const NODE_DAYS = 1;
 export interface HorizonFrames {
   n: number;
   at(i: number, out: Float64Array): void;
+  /** the body's rotation pole (J2000 unit vector) at sample i, into out[0..2] */
+  pole(i: number, out: Float64Array): void;
 }
 
 function rotationNodes(body: BodyName, startMs: number, endMs: number): NodeTable {
@@ -81,7 +83,13 @@ export function horizonFrames(track: Track, lonDeg: number): HorizonFrames {
     out[3] = uy * ez - uz * ey; out[4] = uz * ex - ux * ez; out[5] = ux * ey - uy * ex;
     out[6] = ux; out[7] = uy; out[8] = uz;
   };
-  return { n: track.n, at };
+  const pole = (i: number, out: Float64Array): void => {
+    interpolateNodes(nodes, track.t0_ms + i * stepMs, Q, w);
+    // M = Q Rz(W)^T leaves the z column alone: the pole is Q's third column
+    const r = 1 / Math.hypot(Q[2], Q[5], Q[8]);
+    out[0] = Q[2] * r; out[1] = Q[5] * r; out[2] = Q[8] * r;
+  };
+  return { n: track.n, at, pole };
 }
 
 /** A local-frame vector (x east, y north, z up) to J2000 with the frame `f` (as written by `at`). */

@@ -121,7 +121,7 @@ export function feedPattern(freqMHz: number, beam: BeamSpec, apertureM: number |
         model: beam.model, freqMHz,
         power: (x, y, z) => raw(x, y, z) / max,
         cutoffRad: Math.PI, back: kh === null, principalAz: [a, a + HALF_PI],
-        narrowRad: 20 * DEG, // lobes of a dipole over ground at most a few wavelengths high stay wider than this
+        narrowRad: dipoleNarrowRad(lambda, beam.length_m!, beam.height_m ?? null),
       };
     }
     case 'pattern': {
@@ -142,9 +142,24 @@ export function feedPattern(freqMHz: number, beam: BeamSpec, apertureM: number |
   }
 }
 
+/**
+ * A lower bound of the half-power width of any lobe of a dipole (radians):
+ * the array factor sin^2(kh cos th) has lobes lambda / (2h) wide in cos th
+ * between nulls, so half-power widths of lambda / (4h) or more; the element
+ * [cos(kl/2 cos psi) - cos(kl/2)] / sin psi has lobes lambda / l wide between
+ * nulls, half-power lambda / (2l) or more; and a short dipole just over the
+ * ground, cos^4 th in its E-plane, is 65 deg wide, so 45 deg bounds the rest.
+ */
+export function dipoleNarrowRad(lambdaM: number, lengthM: number, heightM: number | null): number {
+  let w = 45 * DEG;
+  if (heightM !== null && heightM > 0) w = Math.min(w, lambdaM / (4 * heightM));
+  if (lengthM > 0) w = Math.min(w, lambdaM / (2 * lengthM));
+  return w;
+}
+
 /** The narrowest half-power width (radians) of a scenario's beams over its frequencies (automatic step, map resolution). */
 export function narrowestWidthRad(freqs: number[], beam: BeamSpec, apertureM: number | undefined): number {
-  if (beam.model === 'dipole') return 20 * DEG;
+  if (beam.model === 'dipole') return Math.min(...freqs.map((f) => dipoleNarrowRad(wavelengthM(f), beam.length_m!, beam.height_m ?? null)));
   if (beam.model === 'pattern') {
     const zs = beam.table?.zenith_deg ?? [0, 90];
     let minStep = Math.PI;
