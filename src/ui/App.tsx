@@ -7,6 +7,8 @@ import type { SkyFrame, SkyScale } from './skymap/SkyMap';
 import { ScenarioPanel } from './panel/ScenarioPanel';
 import { ResultsTable } from './results/ResultsTable';
 import { Timeline } from './results/Timeline';
+import { UsableByFrequency, usableDiffers } from './results/UsableByFrequency';
+import { AttenuationPlot } from './results/AttenuationPlot';
 import { ExportBar } from './exports/ExportBar';
 import { GlobePane, type SiteSample } from './GlobePane';
 import { TimeScrubber } from './scrub/TimeScrubber';
@@ -333,6 +335,8 @@ export function App() {
                 <ResultsTable result={result} selected={fi} onSelect={setFreqIndex} />
                 <NoiseNote result={result} freqIndex={fi} />
                 <Timeline result={result} scrubMs={scrub ? scrub.sample.ms : null} markers={crossings} />
+                {usableDiffers(result) && <UsableByFrequency result={result} scrubMs={scrub ? scrub.sample.ms : null} />}
+                {result.scenario.constraints.diffraction && <AttenuationPlot result={result} index={scrubOn ? si : null} />}
               </section>
               {pinned && pinned !== result && (
                 <ComparePanel a={pinned} b={result} freqIndex={fi} onSelect={setFreqIndex} onUnpin={() => { setPinned(null); setShowDiff(false); }} />

@@ -1,6 +1,6 @@
 import type { PlanResult } from '../../core/types';
 import { SENSITIVITY_DEFAULTS, SKY_MODEL_LABEL, SKY_MODEL_NOTE } from '../../core/stats';
-import { sig } from '../format';
+import { kelvin, sig } from '../format';
 
 // The sensitivity model behind the noise figures, stated beside them: the
 // radiometer equation, the inputs used, the sky model's label and the warning
@@ -12,7 +12,7 @@ export function noiseCaption(result: PlanResult, freqIndex: number): string {
   const bw = sens?.bandwidth_mhz ?? result.scenario.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz;
   const rx = sens?.receiver_temp_k ?? result.scenario.telescope.receiver_temp_k ?? SENSITIVITY_DEFAULTS.receiver_temp_k;
   const f = result.summary.frequencies[freqIndex];
-  const t = f && f.t_sys_k !== undefined ? ` (T_sys = ${sig(f.t_sys_k, 4)} K at ${sig(f.mhz, 6)} MHz)` : '';
+  const t = f && f.t_sys_k !== undefined ? ` (T_sys = ${kelvin(f.t_sys_k, 4)} at ${sig(f.mhz, 6)} MHz)` : '';
   return `Noise: radiometer equation sigma_T = T_sys / sqrt(bandwidth x exposure), bandwidth ${sig(bw, 4)} MHz, receiver ${sig(rx, 4)} K${t}; ` +
     `sky model: ${sens?.sky_model ?? SKY_MODEL_LABEL}. ${sens?.note ?? SKY_MODEL_NOTE}`;
 }
@@ -28,7 +28,7 @@ export function NoiseNote({ result, freqIndex }: { result: PlanResult; freqIndex
         Noise: radiometer equation σ_T = T_sys / √(bandwidth × exposure), T_sys = T_sky + T_receiver, with a bandwidth of{' '}
         {sig(bw, 4)} MHz and a receiver temperature of {sig(rx, 4)} K
         {f && f.t_sky_k !== undefined && f.t_sys_k !== undefined
-          ? `; at ${sig(f.mhz, 6)} MHz T_sky = ${sig(f.t_sky_k, 4)} K, T_sys = ${sig(f.t_sys_k, 4)} K`
+          ? `; at ${sig(f.mhz, 6)} MHz T_sky = ${kelvin(f.t_sky_k, 4)}, T_sys = ${kelvin(f.t_sys_k, 4)}`
           : ''}
         . Sky model: {sens?.sky_model ?? SKY_MODEL_LABEL}.
       </p>

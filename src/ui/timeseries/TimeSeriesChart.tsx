@@ -33,6 +33,8 @@ export interface ChartSeries {
   values: ArrayLike<number>;
   colour: string;
   visible: boolean;
+  /** 'fill' only: shade this y range [lo, hi] instead of the full plot height (a row of a per-row chart) */
+  band?: [number, number];
 }
 
 export interface ChartY {
@@ -126,21 +128,24 @@ export function TimeSeriesChart(props: TimeSeriesChartProps) {
     series.forEach((s, k) => {
       if (!s.visible || s.kind !== 'fill') return;
       g.fillStyle = s.colour;
+      const top = s.band ? yOf(s.band[1]) : PAD.t;
+      const hgt = s.band ? yOf(s.band[0]) - yOf(s.band[1]) : ph;
+      const alpha = (v: number) => (s.band ? 0.35 + 0.6 * v : 0.1 + 0.22 * v);
       if (sparse) {
         const half = (axis.step_ms / span) * pw / 2;
         for (let i = i0; i <= i1; i++) {
           const v = s.values[i];
           if (!(v > 0)) continue;
-          g.globalAlpha = 0.1 + 0.22 * v;
+          g.globalAlpha = alpha(v);
           const x = xOf(timeOf(axis, i));
-          g.fillRect(x - half, PAD.t, 2 * half, ph);
+          g.fillRect(x - half, top, 2 * half, hgt);
         }
       } else {
         const c = cols[k]!;
         for (let x = 0; x < c.min.length; x++) {
           if (!(c.min[x] > 0)) continue;
-          g.globalAlpha = 0.1 + 0.22 * c.min[x];
-          g.fillRect(PAD.l + x, PAD.t, 1, ph);
+          g.globalAlpha = alpha(c.min[x]);
+          g.fillRect(PAD.l + x, top, 1, hgt);
         }
       }
       g.globalAlpha = 1;
