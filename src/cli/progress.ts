@@ -5,7 +5,11 @@ import type { CliIo } from './io';
 // short runs and test output stay clean. On a terminal one line is redrawn;
 // elsewhere a line is printed per stage change or every 2 seconds.
 
-export function progressReporter(io: CliIo, enabled: boolean, now: () => number = Date.now) {
+/**
+ * `timeLeft`: for a run that is one stage from 0 to 1 (the survey), append the
+ * time left measured from the rate so far, once 5% and a second have passed.
+ */
+export function progressReporter(io: CliIo, enabled: boolean, now: () => number = Date.now, opts: { timeLeft?: boolean } = {}) {
   const t0 = now();
   let last = -Infinity;
   let lastStage = '';
@@ -14,7 +18,9 @@ export function progressReporter(io: CliIo, enabled: boolean, now: () => number 
     if (!enabled) return;
     const t = now();
     if (t - t0 < 500) return;
-    const pct = `${Math.floor(Math.max(0, Math.min(1, fraction)) * 100)}%`.padStart(4);
+    const f = Math.max(0, Math.min(1, fraction));
+    const left = opts.timeLeft && f >= 0.05 && f < 1 && t - t0 >= 1000 ? `, about ${Math.max(1, Math.round(((t - t0) * (1 - f)) / f / 1000))} s left` : '';
+    const pct = `${Math.floor(f * 100)}%`.padStart(4) + left;
     if (io.errIsTTY) {
       if (t - last < 100 && stage === lastStage) return;
       io.err(`\r${stage.slice(0, 40).padEnd(40)} ${pct}`);

@@ -228,7 +228,8 @@ export async function surveyCommand(argv: string[], io: CliIo): Promise<number> 
 
   const sites = shardSites(grid.count, a.shard);
   const opts = { stepDeg: a.stepDeg, shard: a.shard, sites, frequenciesMhz: a.frequencies, noise: a.noise };
-  const progress = progressReporter(io, !a.quiet && (io.errIsTTY || a.progress));
+  // the time left is measured from the sites done so far (issue 9 item 9)
+  const progress = progressReporter(io, !a.quiet && (io.errIsTTY || a.progress), Date.now, { timeLeft: true });
   const report = (f: number) => progress.report(`survey ${sites.length} sites`, f);
   const t0 = performance.now();
   let result: SurveyResult;

@@ -195,6 +195,14 @@ describe('progress and atomic writes', () => {
     p.done();
     expect(lines).toEqual(['progress: ephemeris 20%\n', 'progress: exposure 0%\n']);
     lines.length = 0;
+    // a one-stage run (the survey) states the time left from its rate: 25% in 2 s -> 6 s left
+    now = 0;
+    const sv = progressReporter({ out: () => {}, err: (x) => void lines.push(x), errIsTTY: false, env: {}, cwd: '/' }, true, clock, { timeLeft: true });
+    now = 600; sv.report('survey', 0.02); // under 5% and a second: no projection yet
+    now = 2000; sv.report('survey x', 0.25);
+    sv.done();
+    expect(lines).toEqual(['progress: survey 2%\n', 'progress: survey x 25%, about 6 s left\n']);
+    lines.length = 0;
     now = 0;
     const t = mk(true, true);
     now = 600; t.report('hits', 0.456);
