@@ -70,7 +70,8 @@ describe('app messages name the on-screen label and the range', () => {
 describe('shielding rows (issue 13): kept through edits, messages by label', () => {
   const base = { ...DEMO_SCENARIO, site: { body: 'earth' as const, lat_deg: 30, lon_deg: 10 },
     constraints: { ...DEMO_SCENARIO.constraints, earth_max_elev_deg: null, horizon_mask: [[0, 5], [180, 8]] as [number, number][],
-      diffraction: { rim_distance_m: 600, min_attenuation_db: 15 }, ionosphere: { day_mhz: 9, night_mhz: 2.5 }, sun_min_separation_deg: 40 } };
+      diffraction: { rim_distance_m: 600, min_attenuation_db: 15 }, ionosphere: { day_mhz: 9, night_mhz: 2.5 }, sun_min_separation_deg: 40 },
+    sky: { model: 'uniform' as const } };
 
   it('a loaded scenario\'s shielding fields survive an edit elsewhere', () => {
     const d = { ...scenarioToDraft(base), lat: '31' };
@@ -81,6 +82,7 @@ describe('shielding rows (issue 13): kept through edits, messages by label', () 
     expect(r.scenario.constraints.ionosphere).toEqual({ day_mhz: 9, night_mhz: 2.5 });
     expect(r.scenario.constraints.sun_min_separation_deg).toBe(40);
     expect(r.scenario.site.lat_deg).toBe(31);
+    expect(r.scenario.sky).toEqual({ model: 'uniform' }); // the sky model the form does not edit is kept too
   });
 
   it('a rim distance on every mask point is kept (and the single one stays unset)', () => {

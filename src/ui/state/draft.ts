@@ -51,6 +51,8 @@ export interface Draft {
   nside: string;
   band: string;
   centre: string;
+  /** the sky model (`sky`), which the form does not edit yet: kept as loaded so nothing is lost */
+  sky?: Scenario['sky'];
   /** optional sensitivity inputs; '' = the default in stats.ts SENSITIVITY_DEFAULTS */
   bandwidth: string;
   receiverK: string;
@@ -111,6 +113,7 @@ export function scenarioToDraft(s: Scenario): Draft {
     nside: num(s.map.nside),
     band: num(s.map.galactic_band_deg),
     centre: num(s.map.galactic_center_radius_deg),
+    ...(s.sky !== undefined ? { sky: s.sky } : {}),
     bandwidth: s.telescope.bandwidth_mhz === undefined ? '' : num(s.telescope.bandwidth_mhz),
     receiverK: s.telescope.receiver_temp_k === undefined ? '' : num(s.telescope.receiver_temp_k),
   };
@@ -164,6 +167,7 @@ export function draftToCandidate(d: Draft): unknown {
       ...(d.sepOn ? { sun_min_separation_deg: numOrText(d.sepDeg ?? '') } : {}),
     },
     map: { nside: numOrText(d.nside), galactic_band_deg: numOrText(d.band), galactic_center_radius_deg: numOrText(d.centre) },
+    ...(d.sky !== undefined ? { sky: d.sky } : {}),
   };
 }
 

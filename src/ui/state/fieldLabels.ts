@@ -72,6 +72,7 @@ export function fieldLabel(path: string): string | null {
   m = /^telescope\.pointing_plan\.(\d+)(?:\.(\w+))?$/.exec(p);
   if (m) return `Pointing plan segment ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_deg$/, '').replace(/_/g, ' ')}` : ''} (from the loaded file)`;
   if (p.startsWith('telescope.beam.table.')) return LABELS['telescope.beam.table'];
+  if (p === 'sky' || p.startsWith('sky.')) return `Sky model setting ${p} (from the loaded file)`;
   return null;
 }
 
