@@ -316,7 +316,7 @@ function horizonMask(iss: Issues, field: string, v: unknown): HorizonPoint[] | n
 
 // ---------------------------------------------------------------- the scenario
 
-const TOP_KEYS = ['format', 'name', 'site', 'span', 'telescope', 'constraints', 'map', 'sky'] as const;
+const TOP_KEYS = ['$schema', 'format', 'name', 'site', 'span', 'telescope', 'constraints', 'map', 'sky'] as const;
 const SKY_KEYS = ['model', 'maps', 'spectral_index', 'ground_temp_k'] as const;
 const SKY_MAP_KEYS = ['file', 'frequency_mhz'] as const;
 const SKY_MODELS: readonly SkyModelName[] = ['galaxy', 'uniform', 'map'];
@@ -349,6 +349,9 @@ function parseUnsafe(input: unknown): ParseResult {
       ? `format is required (must be "${SCENARIO_FORMAT}")`
       : `format must be "${SCENARIO_FORMAT}", got ${describeValue(top.format)}`);
   }
+
+  // $schema: where an editor finds public/swathe.scenario.schema.json; ignored otherwise
+  if (has(top, '$schema') && typeof top.$schema !== 'string') iss.add('$schema', `$schema must be text (the address of the scenario JSON Schema), got ${describeValue(top.$schema)}`);
 
   // name
   let name: string = SCENARIO_DEFAULTS.name;
