@@ -26,7 +26,8 @@ async function main(): Promise<void> {
   const cov = await benchCoverage((l) => console.log(l));
   const antenna = await (await import('./antenna')).benchAntenna((l) => console.log(l)); // issue 11 item 8
   const survey = await (await import('./survey')).benchSurvey((l) => console.log(l)); // issue 5 item 1
-  if (json) console.log(JSON.stringify({ scenarios: cov.scenarios, antenna: antenna.rows, survey: survey.result }));
+  const antennaTemp = await (await import('./antennaTemp')).benchAntennaTemp((l) => console.log(l)); // issue 12 item 8
+  if (json) console.log(JSON.stringify({ scenarios: cov.scenarios, antenna: antenna.rows, survey: survey.result, antenna_temp: antennaTemp }));
 }
 
 main().catch((e) => {

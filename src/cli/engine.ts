@@ -1,11 +1,12 @@
 import type { PlanResult, Scenario } from '../core/types';
+import type { LoadedSkyMap } from '../core/sky/model';
 
 // The engine's runPlan (src/engine/runPlan.ts, see notes/apis.md), loaded on
 // demand so `swathe --help` and input checks never wait for it.
 
 export type RunPlanFn = (
   s: Scenario,
-  opts?: { onProgress?: (stage: string, fraction: number) => void; signal?: AbortSignal },
+  opts?: { onProgress?: (stage: string, fraction: number) => void; signal?: AbortSignal; skyMaps?: LoadedSkyMap[] },
 ) => Promise<PlanResult>;
 
 export async function loadRunPlan(): Promise<RunPlanFn> {

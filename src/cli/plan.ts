@@ -1,9 +1,10 @@
 import { mkdirSync, statSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { prepareOutDir } from './outDir';
 import { describeEstimate, estimateRun } from '../core/limits';
-import { CHUNK_ROWS, coverageCsvChunks, trackCsvChunks } from '../core/export/csv';
+import { CHUNK_ROWS, antennaTempCsvChunks, coverageCsvChunks, trackCsvChunks } from '../core/export/csv';
+import { readSkyMaps } from './skyMaps';
 import { coverageFits } from '../core/export/fits';
 import { summaryJson } from '../core/export/summary';
 import { AtomicFileSet } from './atomicWrite';
@@ -19,6 +20,7 @@ Reads a swathe.scenario/1 JSON file, checks it and the run limits, computes
 the zenith track and the exposure maps, and writes into DIR (made if missing):
   summary.json   swathe.summary/1: hours, zenith range, galactic dwell, per-frequency figures
   track.csv      one row per sample: utc, ra/dec, l/b, Sun and Earth elevation, usable
+  antenna_temp.csv  one row per sample: utc, usable, antenna temperature (K) per frequency
   coverage.csv   one row per HEALPix RING pixel: position and hours per frequency
   coverage.fits  the exposure maps as a HEALPix binary-table FITS file
 Each file is written under a temporary name and renamed once all are complete.
@@ -67,6 +69,9 @@ export async function planCommand(argv: string[], io: CliIo, deps: PlanDeps = {}
   const est = estimateRun(scenario);
   if (est.problems.length) throw new InputError(`${oneLine(positionals[0], 200)}: ${est.problems.map((p) => p.message).join('; ')}`);
 
+  // sky maps: paths relative to the scenario file
+  const skyMaps = readSkyMaps(scenario, dirname(resolve(io.cwd, positionals[0])));
+
   const outDir = resolve(io.cwd, values.out);
   prepareOutDir(outDir, values.out);
 
@@ -85,9 +90,10 @@ export async function planCommand(argv: string[], io: CliIo, deps: PlanDeps = {}
   process.once('SIGINT', onSignal);
   process.once('SIGTERM', onSignal);
   try {
-    const result = await runPlan(scenario, { onProgress: progress.report });
+    const result = await runPlan(scenario, { onProgress: progress.report, ...(skyMaps ? { skyMaps } : {}) });
     files.write(join(outDir, 'summary.json'), [summaryJson(result.summary)]);
     files.write(join(outDir, 'track.csv'), counted(trackCsvChunks(result), result.track.n, 'writing track.csv', progress.report));
+    if (result.t_ant) files.write(join(outDir, 'antenna_temp.csv'), counted(antennaTempCsvChunks(result), result.track.n, 'writing antenna_temp.csv', progress.report));
     const npix = 12 * scenario.map.nside ** 2;
     files.write(join(outDir, 'coverage.csv'), counted(coverageCsvChunks(result), npix, 'writing coverage.csv', progress.report));
     progress.report('writing coverage.fits', 0);

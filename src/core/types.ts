@@ -174,6 +174,12 @@ export interface FrequencySummary {
   usable_hours_geometric?: number;
   /** added: why this frequency loses time to a plasma cut-off, in words; absent when it does not */
   usable_note?: string;
+  /** antenna temperature over the samples usable at this frequency (median, least, largest), K */
+  t_ant_median_k?: number;
+  t_ant_min_k?: number;
+  t_ant_max_k?: number;
+  /** share of the beam below the horizon or mask (largest over pointing segments): seen as ground_temp_k, or left out of T_ant */
+  t_ant_ground_fraction?: number;
   /** figures of the free-space beam (main feed): principal-plane FWHMs, solid angle, directivity */
   beam?: { fwhm_major_deg: number; fwhm_minor_deg: number; solid_angle_sr: number; directivity_dbi: number };
 }
@@ -195,6 +201,8 @@ export interface SensitivitySummary {
   receiver_temp_k: number;
   sky_model: string;
   note: string;
+  /** added: how T_sys enters the noise maps */
+  estimator?: string;
 }
 
 export interface HoursSummary { total: number; sun_down: number; earth_down: number | null; usable: number }
@@ -234,6 +242,8 @@ export interface PlanResult {
   noise_maps?: Float32Array[];
   /** added: 1 where the pixel centre came within FWHM/2 of the usable path (the sky_fraction_covered mask), per frequency */
   covered?: Uint8Array[];
+  /** added: antenna temperature per sample (K), one series per frequency (ARCHITECTURE.md section 6) */
+  t_ant?: { series: Float32Array[]; ground_fraction: number[]; ground_included: boolean };
   /** added: usable flags per frequency (identical ones are the same array); `usable` is their union */
   usable_by_freq?: Uint8Array[];
 }

@@ -22,6 +22,10 @@ import { macrotask } from './macrotask';
 import { antennaBeam, beamFiguresFor, beamWidthRad, horizonFrames, isPlainZenithDish, sampleSegments, segmentsOf } from '../core/antenna';
 import { spinCoverageStage, type SpinJob } from '../core/antenna/spin';
 import type { SegmentSummary } from '../core/types';
+import { skyModelFor, type LoadedSkyMap } from '../core/sky/model';
+import { antennaTempGrid, antennaTempStage, type AntennaTempResult } from '../core/sky/antennaTemp';
+import { SkyMapError } from '../core/sky/fitsMap';
+import { tAntSummary } from '../core/sky/tAntSummary';
 
 export type ProgressFn = (stage: string, fraction: number) => void;
 
@@ -32,12 +36,14 @@ export interface RunOptions {
   reuse?: PlanResult;
   /** for tests: the clock the slicing reads (ms); default performance.now */
   clock?: () => number;
+  /** the maps of `sky.maps`, read by the caller (the CLI from files, the app from storage), in that order */
+  skyMaps?: LoadedSkyMap[];
 }
 
 /** Work between two turns of the event loop (ms). Progress goes out at each turn. */
 export const SLICE_MS = 50;
 
-export const STAGES = ['ephemeris', 'usable', 'hits', 'exposure', 'summary'] as const;
+export const STAGES = ['ephemeris', 'usable', 'antenna temperature', 'hits', 'exposure', 'summary'] as const;
 
 export class CancelledError extends Error {
   constructor(message = 'The computation was cancelled') {
@@ -159,6 +165,32 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   const usable = prevInt && sameBytes(prev!.usable, anyFreq) ? prev!.usable : anyFreq;
   d.report('usable', 1);
 
+  // Antenna temperature along the drift, every sample and frequency
+  d.report('antenna temperature', 0);
+  let sky;
+  try {
+    sky = skyModelFor(s.sky, opts.skyMaps ?? []);
+  } catch (e) {
+    if (e instanceof SkyMapError) throw new ScenarioError([{ field: e.field, message: e.message }]);
+    throw e;
+  }
+  const tFrames = horizonFrames(track, s.site.lon_deg);
+  const tSegs = segmentsOf(s);
+  const maskFree = !s.constraints.horizon_mask || s.constraints.horizon_mask.every((p) => p[1] <= 0);
+  const tGrids: ReturnType<typeof antennaTempGrid>[][] = [];
+  for (let k = 0; k < freqsMhz.length; k++) {
+    const g = await d.run('antenna temperature', sky.prepare(freqsMhz[k]), (0.3 * k) / freqsMhz.length, (0.3 * (k + 0.8)) / freqsMhz.length);
+    const row = [];
+    for (let gi = 0; gi < tSegs.length; gi++) {
+      row.push(antennaTempGrid(antennaBeam(s, freqsMhz[k], gi), g, { maskFree }));
+      await d.maybeTurn('antenna temperature', (0.3 * (k + 0.8 + (0.2 * (gi + 1)) / tSegs.length)) / freqsMhz.length);
+    }
+    tGrids.push(row);
+  }
+  const tAnt: AntennaTempResult = await d.run('antenna temperature', antennaTempStage(tFrames, tGrids, tSegs.length > 1 ? sampleSegments(track, tSegs) : null, s.sky?.ground_temp_k), 0.3, 1);
+  d.report('antenna temperature', 1);
+  const tAntFigures = freqsMhz.map((_, k) => tAntSummary(tAnt.t_ant_k[k], usableByFreq[k]));
+
   const nside = s.map.nside;
   const maps: Float32Array[] = [];
   const noiseMaps: Float32Array[] = [];
@@ -175,6 +207,12 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     return { fwhm_major_deg: g.fwhm_major_deg, fwhm_minor_deg: g.fwhm_minor_deg, solid_angle_sr: g.solid_angle_sr, directivity_dbi: g.directivity_dbi };
   };
 
+  const tAntFields = (k: number) => ({
+    t_ant_median_k: tAntFigures[k].median,
+    t_ant_min_k: tAntFigures[k].min,
+    t_ant_max_k: tAntFigures[k].max,
+    t_ant_ground_fraction: tAnt.ground_fraction[k],
+  });
   const hits: Internals['hits'] = [];
   if (isPlainZenithDish(s)) {
   // Hit maps: one per distinct usable mask, fine enough for the narrowest beam using it
@@ -214,6 +252,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
       usable_hours: usableHoursAt(track, limits.fminMHz, mhz),
       usable_hours_geometric: usableHoursAt(track, limits.fminGeometricMHz, mhz),
       beam: figuresOf(mhz),
+      ...tAntFields(k),
       ...(note ? { usable_note: note } : {}),
     });
     await d.maybeTurn('exposure', hi);
@@ -269,6 +308,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
         usable_hours_geometric: usableHoursAt(track, limits.fminGeometricMHz, mhz),
         ...(ionosphereNote(s, mhz) ? { usable_note: ionosphereNote(s, mhz)! } : {}),
         beam: figuresOf(mhz),
+        ...tAntFields(k),
       });
     }
     if (s.telescope.pointing_plan?.length) {
@@ -305,7 +345,10 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   };
   d.check();
   d.report('summary', 1);
-  const result: PlanResult = { scenario: s, track, usable, maps, summary, noise_maps: noiseMaps, covered: coveredMasks, usable_by_freq: usableByFreq };
+  const result: PlanResult = {
+    scenario: s, track, usable, maps, summary, noise_maps: noiseMaps, covered: coveredMasks, usable_by_freq: usableByFreq,
+    t_ant: { series: tAnt.t_ant_k, ground_fraction: tAnt.ground_fraction, ground_included: tAnt.ground_included },
+  };
   internals.set(result, { limits, hits });
   return result;
 }

@@ -118,7 +118,7 @@ describe('runPlan progress and cancellation', () => {
     let maxGap = 0;
     for (let i = 1; i < times.length; i++) maxGap = Math.max(maxGap, times[i] - times[i - 1]);
     expect(maxGap).toBeLessThan(250);
-    expect([...stages]).toEqual(['ephemeris', 'usable', 'hits', 'exposure', 'summary']);
+    expect([...stages]).toEqual(['ephemeris', 'usable', 'antenna temperature', 'hits', 'exposure', 'summary']);
   });
 
   it('cancels at any point: rejects with CancelledError and nothing runs or reports afterwards', async () => {

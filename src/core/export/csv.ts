@@ -198,3 +198,38 @@ export function* trackCsvChunks(result: PlanResult): Generator<string, void, voi
 export function trackCsv(result: PlanResult): string {
   return [...trackCsvChunks(result)].join('');
 }
+
+/** Antenna temperature as written: 6 significant digits, empty where the sky has no data. */
+function fmtK(x: number): string {
+  return x === x ? String(Number(x.toPrecision(6))) : '';
+}
+
+/**
+ * antenna_temp.csv in chunks (ARCHITECTURE.md section 6): `utc,usable,t_ant_k_<f>mhz,...`,
+ * one row per sample, the same times as track.csv; usable is 1 when usable at any frequency.
+ */
+export function* antennaTempCsvChunks(result: PlanResult): Generator<string, void, void> {
+  const t = result.track;
+  const ta = result.t_ant;
+  if (!ta) throw new Error('the result has no antenna temperature');
+  const u = result.usable;
+  const freqs = result.scenario.telescope.frequencies_mhz;
+  yield ['utc', 'usable', ...freqs.map((f) => `t_ant_k_${String(f)}mhz`)].map(csvCell).join(',') + '\n';
+  const stepMs = t.step_min * 60_000;
+  const utc = utcFormatter(t.t0_ms, stepMs);
+  let rows: string[] = [];
+  for (let i = 0; i < t.n; i++) {
+    let row = `${csvCell(utc(t.t0_ms + i * stepMs))},${u[i] ? 1 : 0}`;
+    for (let k = 0; k < freqs.length; k++) row += ',' + fmtK(ta.series[k][i]);
+    rows.push(row);
+    if (rows.length === CHUNK_ROWS) {
+      yield rows.join('\n') + '\n';
+      rows = [];
+    }
+  }
+  if (rows.length) yield rows.join('\n') + '\n';
+}
+
+export function antennaTempCsv(result: PlanResult): string {
+  return [...antennaTempCsvChunks(result)].join('');
+}

@@ -31,6 +31,7 @@
 
 import { nside2npix, pix2vecRingInto } from '../healpix';
 import { T_CMB_K } from './constants';
+import { drain, type Stage } from '../types';
 
 export interface GalaxyParams {
   /** synchrotron emissivity of the thin disk at the Sun at 10 MHz, K per kpc */
@@ -124,6 +125,11 @@ const CACHE_MAX = 16;
  * scale; finer use interpolates bilinearly).
  */
 export function galaxyMapGal(freqMHz: number, nside = GALAXY_NSIDE, p: GalaxyParams = GALAXY_PARAMS): Float32Array {
+  return drain(galaxyMapGalStage(freqMHz, nside, p));
+}
+
+/** galaxyMapGal as a pipeline stage (it takes about a second per frequency): yields its progress. */
+export function* galaxyMapGalStage(freqMHz: number, nside = GALAXY_NSIDE, p: GalaxyParams = GALAXY_PARAMS): Stage<Float32Array> {
   const key = `${freqMHz}|${nside}|${p === GALAXY_PARAMS ? '' : JSON.stringify(p)}`;
   const hit = cache.get(key);
   if (hit) return hit;
@@ -133,6 +139,7 @@ export function galaxyMapGal(freqMHz: number, nside = GALAXY_NSIDE, p: GalaxyPar
   for (let i = 0; i < npix; i++) {
     pix2vecRingInto(nside, i, v);
     out[i] = galaxyTemperatureGal(v[0], v[1], v[2], freqMHz, p);
+    if ((i & 1023) === 1023) yield i / npix;
   }
   if (cache.size >= CACHE_MAX) cache.delete(cache.keys().next().value!);
   cache.set(key, out);

@@ -14,7 +14,8 @@
 import type { SkySpec } from '../types';
 import { ICRS_TO_ECL, ICRS_TO_GAL } from '../frames';
 import { T_CMB_K } from './constants';
-import { galaxyMapGal, GALAXY_NSIDE } from './galaxy';
+import { galaxyMapGalStage, GALAXY_NSIDE } from './galaxy';
+import { drain, type Stage } from '../types';
 import { uniformSkyK } from './uniform';
 import { interpRingVec } from './interpolate';
 import { SkyMapError, type HealpixMap, type SkyCoordsys } from './fitsMap';
@@ -41,6 +42,8 @@ export interface SkyModel {
   /** a short description for the summary and the app */
   label: string;
   at(freqMHz: number): SkyGrid;
+  /** the work of `at` as a stage that yields progress (for the engine); its result is what `at` returns */
+  prepare(freqMHz: number): Stage<SkyGrid>;
 }
 
 /** A map the CLI or the app has read, matched to `sky.maps[i]` by position. */
@@ -143,11 +146,19 @@ export function skyModelFor(spec: SkySpec | undefined, maps: LoadedSkyMap[] = []
           const c = () => t;
           return { ...skyGrid(f, 1, 'G', new Float32Array(12).fill(t)), constant: t, atJ2000: c, atGalactic: c };
         }),
+        // eslint-disable-next-line require-yield
+        *prepare(f) { return this.at(f); },
       };
     case 'galaxy':
       return {
         spec: s, label: 'galaxy: analytic synchrotron disks with free-free absorption (NE2001 thick disk), ARCADE 2 background and CMB',
-        at: (f) => cached(f, () => skyGrid(f, GALAXY_NSIDE, 'G', galaxyMapGal(f))),
+        at: (f) => cached(f, () => skyGrid(f, GALAXY_NSIDE, 'G', drain(galaxyMapGalStage(f)))),
+        *prepare(f) {
+          const hit = cache.get(f);
+          if (hit) return hit;
+          const values = yield* galaxyMapGalStage(f);
+          return cached(f, () => skyGrid(f, GALAXY_NSIDE, 'G', values));
+        },
       };
     case 'map': {
       checkSkyMaps(s, maps);
@@ -159,6 +170,8 @@ export function skyModelFor(spec: SkySpec | undefined, maps: LoadedSkyMap[] = []
           ? `map: ${names}, scaled with spectral index ${s.spectral_index} in T - T_CMB`
           : `map: ${names}, per-pixel power law between the two maps nearest in frequency`,
         at: (f) => cached(f, () => skyGrid(f, m0.nside, m0.coordsys, mapModelValues(maps, s.spectral_index, f))),
+        // eslint-disable-next-line require-yield
+        *prepare(f) { return this.at(f); },
       };
     }
   }

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import type { PlanResult } from '../../core/types';
-import { coverageCsv, trackCsv } from '../../core/export/csv';
+import { antennaTempCsv, coverageCsv, trackCsv } from '../../core/export/csv';
 import { coverageFits } from '../../core/export/fits';
 import { summaryJson } from '../../core/export/summary';
 import { renderSkyMapPng } from '../skymap/exportPng';
@@ -61,6 +61,9 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
     },
     { label: 'Download CSV', desc: 'coverage.csv: exposure per HEALPix pixel, every frequency', run: () => downloadText(coverageCsv(result), `${stem}-coverage.csv`, 'text/csv') },
     { label: 'Download track CSV', desc: 'track.csv: zenith, Sun and Earth per sample', run: () => downloadText(trackCsv(result), `${stem}-track.csv`, 'text/csv') },
+    ...(result.t_ant
+      ? [{ label: 'Download antenna temperature CSV', desc: 'antenna_temp.csv: antenna temperature per sample, every frequency', run: () => downloadText(antennaTempCsv(result), `${stem}-antenna_temp.csv`, 'text/csv') }]
+      : []),
     {
       label: 'Download FITS',
       desc: 'coverage.fits: HEALPix binary table, one column per frequency',
