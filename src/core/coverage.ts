@@ -20,7 +20,9 @@ import type { Stage, Track } from './types';
 import { drain } from './types';
 import type { BeamModel } from './types';
 import { makeBeam } from './beam';
-import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, pix2vecRingInto, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
+import { segmentEnd, subStepCount, pathPoint } from './coveragePath';
+import { resolveByPathStage, type PendingPairs } from './coveredPath';
+import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, pix2vecNestInto, pix2vecRingInto, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
 
 export const MAX_HIT_NSIDE = 8192;
 /** Hit pixels for the shared fine map: resolution at most FWHM_min / this. */
@@ -54,7 +56,26 @@ export interface HitMap {
   sy: Float64Array;
   sz: Float64Array;
   totalHours: number;
+  /**
+   * The walk that made the map (track, flags, the grid it binned on and its
+   * sub-step), kept by reference so the covered-sky stage can go back to the
+   * exact path where a pixel's centroid cannot decide (covered.ts).
+   */
+  path?: HitPath;
 }
+
+export interface HitPath {
+  track: Track;
+  usable: Uint8Array;
+  /** nside the walk binned on, and the longest sub-step (chord, radians) */
+  nside: number;
+  maxStepRad: number;
+  /** the NESTED pixel (at `nside`) of every sub-step's midpoint, in walk order; absent past PATH_CELLS_MAX */
+  cells?: Int32Array;
+}
+
+/** Sub-steps whose pixels the hit map keeps for the covered-sky stage (64 MB); beyond, it finds them again. */
+export const PATH_CELLS_MAX = 1 << 24;
 
 /** Smallest power-of-two nside (1..MAX_HIT_NSIDE) whose pixel size (sqrt of area) is at most maxResolRad. */
 export function nsideForResolution(maxResolRad: number): number {
@@ -69,25 +90,6 @@ export function hitNsideFor(fwhmMinRad: number, perFwhm = FINE_HIT_PER_FWHM): nu
 }
 
 /**
- * The end of sample i's path: the next sample's zenith, or for the last one
- * the zenith carried on at the same rate for the rest of its (possibly short)
- * interval. Written into out[0..2] (not normalised).
- */
-function segmentEnd(track: Track, i: number, out: Float64Array): void {
-  const { zx, zy, zz, n } = track;
-  if (i + 1 < n) {
-    out[0] = zx[i + 1]; out[1] = zy[i + 1]; out[2] = zz[i + 1];
-  } else if (n >= 2) {
-    const f = track.weight_h[i] / (track.step_min / 60);
-    out[0] = zx[i] + (zx[i] - zx[i - 1]) * f;
-    out[1] = zy[i] + (zy[i] - zy[i - 1]) * f;
-    out[2] = zz[i] + (zz[i] - zz[i - 1]) * f;
-  } else {
-    out[0] = zx[i]; out[1] = zy[i]; out[2] = zz[i];
-  }
-}
-
-/**
  * Walks the usable part of the path: calls visit(x, y, z, hours) for points
  * spaced at most maxStepRad apart (midpoints of equal sub-intervals of each
  * sample's interval), yielding progress every ~50k points.
@@ -99,7 +101,7 @@ function* walkPath(
   visit: (x: number, y: number, z: number, hours: number) => void,
 ): Generator<number, void, void> {
   const { zx, zy, zz, weight_h, n } = track;
-  const e = new Float64Array(3);
+  const e = new Float64Array(3), v = new Float64Array(3);
   let work = 0;
   for (let i = 0; i < n; i++) {
     if (!usable[i]) continue;
@@ -108,15 +110,11 @@ function* walkPath(
     segmentEnd(track, i, e);
     const ax = zx[i], ay = zy[i], az = zz[i];
     const dx = e[0] - ax, dy = e[1] - ay, dz = e[2] - az;
-    const chord = Math.sqrt(dx * dx + dy * dy + dz * dz);
-    const k = Math.max(1, Math.ceil(chord / maxStepRad));
+    const k = subStepCount(Math.sqrt(dx * dx + dy * dy + dz * dz), maxStepRad);
     const wk = w / k;
     for (let j = 0; j < k; j++) {
-      const t = (j + 0.5) / k;
-      let x = ax + dx * t, y = ay + dy * t, z = az + dz * t;
-      const r = 1 / Math.sqrt(x * x + y * y + z * z);
-      x *= r; y *= r; z *= r;
-      visit(x, y, z, wk);
+      pathPoint(ax, ay, az, dx, dy, dz, (j + 0.5) / k, v);
+      visit(v[0], v[1], v[2], wk);
     }
     work += k + 1;
     if (work >= 50_000) {
@@ -156,15 +154,26 @@ export function* hitMapStage(
   // the walk starts again on a grid twice as coarse (narrow beams over long
   // spans only; the exposure's own resolution is rarely affected).
   let pages: (Float64Array | undefined)[];
+  let maxStep: number;
+  let cells: Int32Array | undefined, nCells = 0;
   for (;;) {
     pages = new Array(Math.ceil(nside2npix(nside) / PAGE));
     let used = 0;
-    const maxStep = nside2resolRad(nside) * (opts.stepPerPixel ?? SUBSTEP_PER_PIXEL);
+    cells = new Int32Array(4096);
+    nCells = 0;
+    maxStep = nside2resolRad(nside) * (opts.stepPerPixel ?? SUBSTEP_PER_PIXEL);
     const grid = nside;
     const pg = pages;
     try {
       yield* walkPath(track, usable, maxStep, (x, y, z, h) => {
         const p = vec2pixNest(grid, x, y, z);
+        if (cells) {
+          if (nCells === cells.length) {
+            if (nCells >= PATH_CELLS_MAX) cells = undefined;
+            else { const c = new Int32Array(Math.min(PATH_CELLS_MAX, 2 * nCells)); c.set(cells); cells = c; }
+          }
+          if (cells) cells[nCells++] = p;
+        }
         const pi = p >>> PAGE_BITS;
         let page = pg[pi];
         if (page === undefined) {
@@ -196,6 +205,7 @@ export function* hitMapStage(
     sy: new Float64Array(count),
     sz: new Float64Array(count),
     totalHours: 0,
+    path: { track, usable, nside, maxStepRad: maxStep, ...(cells ? { cells: cells.slice(0, nCells) } : {}) },
   };
   let k = 0;
   for (let pi = 0; pi < pages.length; pi++) {
@@ -238,6 +248,7 @@ export function degradeHitMap(hit: HitMap, nside: number): HitMap {
     sy: new Float64Array(count),
     sz: new Float64Array(count),
     totalHours: hit.totalHours,
+    path: hit.path,
   };
   let k = -1;
   last = -1;
@@ -401,51 +412,99 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
 export const COVER_GROUP_PIXELS = 2.5;
 
 /**
- * Pixels (RING, at `nside`) whose centre came within radiusRad of the usable
- * path: an output pixel is covered when the centroid of some fine hit pixel
- * lies within radiusRad of its centre. 1 = covered.
+ * Pixels (RING, at `nside`) whose centre lies within radiusRad of the usable
+ * path, each usable sample's interval in full (the path the exposure spreads
+ * its hours along). 1 = covered. A hit pixel's centre decides the output
+ * pixels far enough inside or outside the radius (within or beyond the hit
+ * pixel's own size of it); the rest are measured against the path itself
+ * (coveredPath.ts), so the mask is that of the exact distance. A hit map
+ * without its path (none is built so today) falls back to its centroids.
  */
 export function* coveredStage(hit: HitMap, radiusRad: number, nside: number, opts: { hitPerRadius?: number } = {}): Stage<Uint8Array> {
   checkOutputNside(nside);
   if (!(radiusRad > 0)) throw new RangeError(`coverage radius must be > 0, got ${radiusRad}`);
-  // the finest hit map by default: its centroids follow the path most closely
+  // the finest hit map by default: the fewer output pixels left for the exact step
   const level = opts.hitPerRadius ? Math.min(hit.nside, nsideForResolution(radiusRad / opts.hitPerRadius)) : hit.nside;
   const h = degradeHitMap(hit, level);
+  const path = h.path;
   const scratch = { buf: new Float64Array(0) };
   const mask = new Uint8Array(nside2npix(nside));
-  const cen = centroids(h);
+  // with the path: hit pixel centres (the path passed within rho of each); without: centroids
+  const rho = maxPixradRad(h.nside) * 1.001;
+  const reach = path ? rho + path.maxStepRad : 0;
+  const cen = path ? pixelCentresNest(h) : centroids(h);
+  const cosIn = path ? (radiusRad > rho ? Math.cos(radiusRad - rho) : 2) : Math.cos(radiusRad);
+  const cosOut = path ? Math.cos(Math.min(Math.PI, radiusRad + reach)) : 2;
   // groups about COVER_GROUP_PIXELS output pixels in radius: the grouping only
-  // sets how many centroids each disc query tests (the mask is exact whatever
+  // sets how many hit pixels each disc query tests (the mask is exact whatever
   // it is); this width was measured fastest at nside 64..512
   const groupNside = groupNsideFor(h.nside, COVER_GROUP_PIXELS * nside2resolRad(nside));
   const { starts, centres: gc } = groupHits(h, groupNside);
-  const radius = Math.min(Math.PI, radiusRad + maxPixradRad(groupNside));
-  const cosR = Math.cos(radiusRad);
+  const radius = Math.min(Math.PI, radiusRad + reach + maxPixradRad(groupNside));
+  const radiusIn = Math.min(Math.PI, radiusRad + maxPixradRad(groupNside));
   const groups = starts.length - 1;
+  let pk: Int32Array<ArrayBuffer> = new Int32Array(1024), pq: Int32Array<ArrayBuffer> = new Int32Array(1024), np = 0;
+  // pass 0: the pixels a hit pixel settles; pass 1 (with the path): for those
+  // still open, the hit pixels whose path pieces may reach them
+  const passes = path ? 2 : 1;
   let work = 0;
-  for (let g = 0; g < groups; g++) {
-    const k0 = starts[g], k1 = starts[g + 1];
-    const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], radius, false);
-    for (let r = 0; r < ranges.length; r += 2) {
-      const end = ranges[r + 1];
-      const [centres, base] = centresOf(nside, ranges[r], end, scratch);
-      for (let q = ranges[r]; q < end; q++) {
-        if (mask[q]) continue;
-        const o = 3 * (q - base);
-        const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
-        for (let k = k0; k < k1; k++) {
-          if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz >= cosR) { mask[q] = 1; break; }
+  for (let pass = 0; pass < passes; pass++) {
+    for (let g = 0; g < groups; g++) {
+      const k0 = starts[g], k1 = starts[g + 1];
+      const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], pass ? radius : radiusIn, false);
+      for (let r = 0; r < ranges.length; r += 2) {
+        const end = ranges[r + 1];
+        const [centres, base] = centresOf(nside, ranges[r], end, scratch);
+        for (let q = ranges[r]; q < end; q++) {
+          if (mask[q]) continue;
+          const o = 3 * (q - base);
+          const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
+          if (pass === 0) {
+            for (let k = k0; k < k1; k++) {
+              if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz >= cosIn) { mask[q] = 1; break; }
+            }
+          } else {
+            for (let k = k0; k < k1; k++) {
+              if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz < cosOut) continue;
+              if (np === pk.length) { pk = grow(pk); pq = grow(pq); }
+              pk[np] = k; pq[np] = q; np++;
+            }
+          }
         }
+        work += (end - ranges[r]) * (k1 - k0);
       }
-      work += (end - ranges[r]) * (k1 - k0);
-    }
-    work += 20;
-    if (work >= 100_000) {
-      work = 0;
-      yield g / groups;
+      work += 20;
+      if (work >= 100_000) {
+        work = 0;
+        yield (pass + g / groups) / (path ? 3 : 1);
+      }
     }
   }
+  if (!path || np === 0) return mask;
+  // the pending pairs, grouped by hit pixel
+  const start = new Int32Array(h.pix.length + 1);
+  for (let i = 0; i < np; i++) start[pk[i] + 1]++;
+  for (let k = 0; k < h.pix.length; k++) start[k + 1] += start[k];
+  const q = new Int32Array(np);
+  const fill = start.slice(0, h.pix.length);
+  for (let i = 0; i < np; i++) q[fill[pk[i]]++] = pq[i];
+  const pend: PendingPairs = { start, q };
+  const exact = resolveByPathStage(path, h, pend, radiusRad, nside, mask);
+  for (let r = exact.next(); !r.done; r = exact.next()) yield (2 + r.value) / 3;
   return mask;
+}
+
+function grow(a: Int32Array<ArrayBuffer>): Int32Array<ArrayBuffer> {
+  const b = new Int32Array(a.length * 2);
+  b.set(a);
+  return b;
+}
+
+/** Centres of all hit pixels (NESTED at the map's nside), x, y, z interleaved. */
+function pixelCentresNest(h: HitMap): Float64Array {
+  const out = new Float64Array(3 * h.pix.length);
+  for (let k = 0; k < h.pix.length; k++) pix2vecNestInto(h.nside, h.pix[k], out, 3 * k);
+  return out;
 }
 
 /**

@@ -140,6 +140,33 @@ describe('covered sky', () => {
     expect(Math.abs(sum(mask) / nside2npix(nside) / Math.sin(R) - 1)).toBeLessThan(0.03);
   });
 
+  it('a usable stretch is covered to its very ends: one 6-deg arc on the equator, exactly the centres within R of it', () => {
+    // samples 2 deg apart along the equator (RA 0, 2, 4, ...); only samples 5..7 usable, so the
+    // path is the arc RA 10..16 deg. Written out: a centre at longitude phi and latitude theta
+    // lies within R of it when 10 <= phi <= 16 and |theta| <= R, or within R of an end.
+    const t = smallCircleTrack({ decDeg: 0, rateDegPerH: 2, stepMin: 60, spanH: 30 });
+    const usable = new Uint8Array(t.n);
+    usable[5] = usable[6] = usable[7] = 1;
+    const R = 1.5 * DEG, nside = 256;
+    const hit = hitMap(t, usable, { nside: hitNsideFor(2 * R) });
+    const mask = coveredMask(hit, R, nside);
+    const c = pixelCentersRing(nside);
+    const end = (phiDeg: number): [number, number] => [Math.cos(phiDeg * DEG), Math.sin(phiDeg * DEG)];
+    let want = 0, wrong = 0;
+    for (let q = 0; q < mask.length; q++) {
+      const x = c[3 * q], y = c[3 * q + 1], z = c[3 * q + 2];
+      const phi = Math.atan2(y, x) / DEG;
+      const d = phi >= 10 && phi <= 16
+        ? Math.asin(Math.abs(z))
+        : Math.min(...[10, 16].map((f) => { const [ex, ey] = end(f); return Math.acos(Math.min(1, x * ex + y * ey)); }));
+      const w = d <= R ? 1 : 0;
+      want += w;
+      if (mask[q] !== w) wrong++;
+    }
+    expect(want).toBeGreaterThan(300);
+    expect(wrong).toBe(0);
+  });
+
   it('an unusable stretch leaves its part of the sky uncovered', () => {
     const t = smallCircleTrack({ decDeg: 20, rateDegPerH: 3, stepMin: 30, spanH: 120 }); // 360 deg
     const usable = new Uint8Array(t.n);
