@@ -14,6 +14,13 @@ import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core
 // A site's sample step is shorter on the Earth and Mars (the sky turns
 // faster), and a short step costs less per sample.
 //
+// The fit is for an idle machine. In Chromium on the same machine shared with
+// other jobs (load average 8 to 17 on 2 cores, scripts/survey-browser-timing.ts,
+// 2026-12-02) the first demo survey at 15 degrees took 30 to 75 s against a
+// fitted 2.2 s; the next estimate, calibrated by that run, came within 7% and
+// 23% of the real run, and the live projection after a fifth of the sites within
+// 1% to 29% (65% once, with the page's own plan still running beside it).
+//
 // Once a survey has run on this computer, the ratio of its measured time to
 // the fit scales later estimates (the browser, its load and its workers are
 // then in the figure). While a survey runs, the panel states the rate
