@@ -168,9 +168,9 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
           <span data-ms-per-site={est.msPerSite} data-wall-s={est.wallSeconds} data-calibrated={est.calibrated ? '1' : '0'}>
             Estimate: {est.sites.toLocaleString('en-US')} sites ({est.nLat} latitudes × {est.nLon} longitudes, every{' '}
             {Number(est.latStepDeg.toPrecision(3))}° × {Number(est.lonStepDeg.toPrecision(3))}°) × about {Number(est.msPerSite.toPrecision(2))} ms a site
-            {' '}({est.calibrated ? 'scaled by the last survey measured on this computer' : 'from timings on a reference 2-core machine'})
+            {' '}({est.calibrated ? 'scaled by the last survey measured in this browser' : 'timed on an idle 2-core machine; a busy computer takes longer'})
             {' '}= {secondsText(est.cpuSeconds)} of computing, {secondsText(est.wallSeconds)} on {survey.workers} worker{survey.workers === 1 ? '' : 's'}.
-            {' '}While it runs, the time left is measured.
+            {' '}Once it runs, the time left is measured from the first sites.
           </span>
         ) : null}
         {survey.cancelled && !survey.running && <span> Survey cancelled; the previous layer is kept.</span>}
