@@ -5,6 +5,7 @@ import { prepareOutDir } from './outDir';
 import { describeEstimate, estimateRun } from '../core/limits';
 import { CHUNK_ROWS, antennaTempCsvChunks, coverageCsvChunks, trackCsvChunks } from '../core/export/csv';
 import { readSkyMaps } from './skyMaps';
+import { depthAreaCsv } from '../core/sky/depthArea';
 import { coverageFits } from '../core/export/fits';
 import { summaryJson } from '../core/export/summary';
 import { AtomicFileSet } from './atomicWrite';
@@ -21,6 +22,7 @@ the zenith track and the exposure maps, and writes into DIR (made if missing):
   summary.json   swathe.summary/1: hours, zenith range, galactic dwell, per-frequency figures
   track.csv      one row per sample: utc, ra/dec, l/b, Sun and Earth elevation, usable
   antenna_temp.csv  one row per sample: utc, usable, antenna temperature (K) per frequency
+  depth_area.csv    sky area (deg^2) with noise at or below each level, per frequency
   coverage.csv   one row per HEALPix RING pixel: position and hours per frequency
   coverage.fits  the exposure maps as a HEALPix binary-table FITS file
 Each file is written under a temporary name and renamed once all are complete.
@@ -94,6 +96,7 @@ export async function planCommand(argv: string[], io: CliIo, deps: PlanDeps = {}
     files.write(join(outDir, 'summary.json'), [summaryJson(result.summary)]);
     files.write(join(outDir, 'track.csv'), counted(trackCsvChunks(result), result.track.n, 'writing track.csv', progress.report));
     if (result.t_ant) files.write(join(outDir, 'antenna_temp.csv'), counted(antennaTempCsvChunks(result), result.track.n, 'writing antenna_temp.csv', progress.report));
+    files.write(join(outDir, 'depth_area.csv'), [depthAreaCsv(result)]);
     const npix = 12 * scenario.map.nside ** 2;
     files.write(join(outDir, 'coverage.csv'), counted(coverageCsvChunks(result), npix, 'writing coverage.csv', progress.report));
     progress.report('writing coverage.fits', 0);

@@ -162,3 +162,27 @@ export function sensitivityFor(
   for (let i = 0; i < covered.length; i++) any += mask[i] = covered[i] && exposureH[i] > 0 ? 1 : 0;
   return { t_sky_k: tSky, t_sys_k: tSys, noise, noise_median_k: any ? maskedMedian(noise, mask) : NaN };
 }
+
+/** How the noise maps combine the samples (summary.sensitivity.estimator; README "Noise with the sky"). */
+export const NOISE_ESTIMATOR = 'inverse-variance weighting of beam-weighted samples: sigma = 1 / sqrt(bandwidth x sum(B dt / T_sys(t)^2)), T_sys(t) = T_ant(t) + T_receiver (radiometer equation, Dicke 1946; Bevington & Robinson eq. 4.17)';
+
+/** Note on the sky model's limits shown beside the noise figures. */
+export function skyModelNote(model: 'galaxy' | 'uniform' | 'map'): string {
+  if (model === 'uniform') return 'The uniform sky is the high-latitude average in every direction: near the galactic plane the sky is several times brighter above a few MHz, so noise there is underestimated.';
+  if (model === 'galaxy') return 'The galaxy model is smooth: it leaves out discrete sources, loops and spurs, spiral arms and HII regions; load a survey-based map for precise work.';
+  return 'Noise follows the loaded sky maps, scaled in frequency as stated; it is only as good as the maps.';
+}
+
+/**
+ * Noise with the sky (sky/noise.ts): the radiometer equation with T_ref and the
+ * T_sys-weighted exposure E' as integration time; median over covered pixels.
+ */
+export function noiseWithSky(
+  exposureW: Float32Array, covered: Uint8Array, tRefK: number, bandwidthMHz: number,
+): { noise: Float32Array; noise_median_k: number } {
+  const noise = noiseMap(exposureW, tRefK === tRefK ? tRefK : 0, bandwidthMHz);
+  const mask = new Uint8Array(covered.length);
+  let any = 0;
+  for (let i = 0; i < covered.length; i++) any += mask[i] = covered[i] && exposureW[i] > 0 ? 1 : 0;
+  return { noise, noise_median_k: any && tRefK === tRefK ? maskedMedian(noise, mask) : NaN };
+}

@@ -64,7 +64,8 @@ import {
   beamProfileFor, beamTable, centresOf, centroids, coveredStage, degradeHitMap, groupHits, groupNsideFor, hitMapStage, hitNsideFor, nsideForResolution,
   EXPOSURE_HIT_PER_FWHM, type BeamProfile, type HitMap,
 } from './coverage';
-import { maskedMedian, SENSITIVITY_DEFAULTS, skyTemperatureK, usableHoursInBand, usableHoursNearCenter } from './stats';
+import { maskedMedian, SENSITIVITY_DEFAULTS, usableHoursInBand, usableHoursNearCenter } from './stats';
+import { uniformSkyK } from './sky/uniform';
 import { ICRS_TO_GAL, galDegToVec } from './frames';
 import { maxPixradRad } from './healpix';
 
@@ -499,7 +500,8 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
     bandwidth_mhz: s.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz,
     receiver_temp_k: s.telescope.receiver_temp_k ?? SENSITIVITY_DEFAULTS.receiver_temp_k,
   };
-  const tSys = which.map((m) => skyTemperatureK(s.telescope.frequencies_mhz[m]) + sens.receiver_temp_k);
+  // the uniform high-latitude sky (sky/uniform.ts) whatever sky.model says: per-site antenna temperature is not computed here
+  const tSys = which.map((m) => uniformSkyK(s.telescope.frequencies_mhz[m]) + sens.receiver_temp_k);
   const nside = s.map.nside;
   const f64 = () => new Float64Array(held);
   const out: SurveyResult = {

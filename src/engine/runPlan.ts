@@ -16,7 +16,8 @@ import { trackStage } from '../core/ephemeris';
 import { galacticSummary, hoursSummary, zenithSummary } from '../core/usable';
 import { distinctMasks, frequencyLimitsStage, ionosphereNote, usableAtAny, usableByFrequency, usableHoursAt, type FrequencyLimits } from '../core/shielding/usableByFrequency';
 import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, type HitMap } from '../core/coverage';
-import { frequencySummary, SENSITIVITY_DEFAULTS, sensitivityFor, SKY_MODEL_LABEL, SKY_MODEL_NOTE } from '../core/stats';
+import { frequencySummary, NOISE_ESTIMATOR, noiseWithSky, SENSITIVITY_DEFAULTS, skyModelNote } from '../core/stats';
+import { sysWeightedTrack } from '../core/sky/noise';
 import { stepMin } from '../core/time';
 import { macrotask } from './macrotask';
 import { antennaBeam, beamFiguresFor, beamWidthRad, horizonFrames, isPlainZenithDish, sampleSegments, segmentsOf } from '../core/antenna';
@@ -243,7 +244,11 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     maps.push(map);
     coveredMasks.push(covered);
     const mhz = s.telescope.frequencies_mhz[k];
-    const noise = sensitivityFor(mhz, map, covered, sens);
+    // noise: the same exposure with each sample's hours weighted by (T_ref / T_sys(t))^2 (sky/noise.ts)
+    const wt = sysWeightedTrack(track, tAnt.t_ant_k[k], sens.receiver_temp_k, usableK);
+    const hitW = await d.run('exposure', hitMapStage(wt.track, usableK, { nside: hits[groups.index[k]].requested }), hi, hi);
+    const mapW = await d.run('exposure', exposureStage(hitW, beams[k], nside), hi, hi);
+    const noise = { ...noiseWithSky(mapW, covered, wt.tRefK, sens.bandwidth_mhz), t_sky_k: tAntFigures[k].median, t_sys_k: wt.tRefK };
     noiseMaps.push(noise.noise);
     const note = ionosphereNote(s, mhz);
     freqs.push({
@@ -297,7 +302,13 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
       maps.push(map);
       coveredMasks.push(covered);
       const mhz = s.telescope.frequencies_mhz[k];
-      const noise = sensitivityFor(mhz, map, covered, sens);
+      // noise: the same exposure with each sample's hours weighted by (T_ref / T_sys(t))^2 (sky/noise.ts)
+      const wt = sysWeightedTrack(track, tAnt.t_ant_k[k], sens.receiver_temp_k, usableByFreq[k]);
+      const jobsK = jobs.filter((_, q) => q % nf === k);
+      const spunW = await d.run('exposure', spinCoverageStage(wt.track, frames, jobsK, nside, s.map.galactic_band_deg, s.map.galactic_center_radius_deg));
+      const accW = new Float64Array(12 * nside * nside);
+      for (const r of spunW) for (let q = 0; q < r.map.length; q++) accW[q] += r.map[q];
+      const noise = { ...noiseWithSky(Float32Array.from(accW), covered, wt.tRefK, sens.bandwidth_mhz), t_sky_k: tAntFigures[k].median, t_sys_k: wt.tRefK };
       noiseMaps.push(noise.noise);
       freqs.push({
         ...frequencySummary({ mhz, fwhmRad: beamWidthRad(s, mhz), exposure: map, covered, track, usable: usableByFreq[k], map: s.map }),
@@ -342,7 +353,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     zenith: zenithSummary(track),
     galactic: galacticSummary(track, usable, s.map),
     frequencies: freqs,
-    sensitivity: { ...sens, sky_model: SKY_MODEL_LABEL, note: SKY_MODEL_NOTE },
+    sensitivity: { ...sens, sky_model: sky.label, note: skyModelNote(sky.spec.model), estimator: NOISE_ESTIMATOR },
     ...(segmentSummaries ? { segments: segmentSummaries } : {}),
   };
   d.check();

@@ -103,12 +103,12 @@ describe('swathe plan: input problems exit 2 with one line naming the field', ()
 });
 
 describe('swathe plan: output', () => {
-  it('writes the five files with nothing else left behind', async () => {
+  it('writes the six files with nothing else left behind', async () => {
     const engine = fakeEngine();
     const { code, cap, dir } = await runWith(['s.json', '--out', 'out/run1'], { 's.json': JSON.stringify(GOOD) }, engine);
     expect([code, cap.err]).toEqual([0, '']);
     const out = join(dir, 'out/run1');
-    expect(readdirSync(out).sort()).toEqual(['antenna_temp.csv', 'coverage.csv', 'coverage.fits', 'summary.json', 'track.csv']);
+    expect(readdirSync(out).sort()).toEqual(['antenna_temp.csv', 'coverage.csv', 'coverage.fits', 'depth_area.csv', 'summary.json', 'track.csv']);
     expect(engine.calls[0]).toEqual((parseScenario(GOOD) as { scenario: Scenario }).scenario);
     expect(JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8')).format).toBe('swathe.summary/1');
     expect(readFileSync(join(out, 'track.csv'), 'utf8').split('\n')[0]).toBe('utc,ra_deg,dec_deg,l_deg,b_deg,sun_elev_deg,earth_elev_deg,usable');
@@ -239,7 +239,7 @@ describe('with the real engine', () => {
     expect(summary.frequencies.map((f: { mhz: number }) => f.mhz)).toEqual([5, 7.5, 20]);
     expect(readFileSync(join(d, 'o', 'track.csv'), 'utf8').trimEnd().split('\n')).toHaveLength(1 + 31 * 48);
     expect(readFileSync(join(d, 'o', 'coverage.csv'), 'utf8').split('\n')[0]).toBe('pixel,ra_deg,dec_deg,l_deg,b_deg,exposure_h_5mhz,exposure_h_7.5mhz,exposure_h_20mhz');
-    expect(readdirSync(join(d, 'o')).sort()).toEqual(['antenna_temp.csv', 'coverage.csv', 'coverage.fits', 'summary.json', 'track.csv']);
+    expect(readdirSync(join(d, 'o')).sort()).toEqual(['antenna_temp.csv', 'coverage.csv', 'coverage.fits', 'depth_area.csv', 'summary.json', 'track.csv']);
   });
 
   it('as a process: exit codes and one-line stderr (bin/swathe.mjs through tsx)', () => {
@@ -253,7 +253,7 @@ describe('with the real engine', () => {
     expect(bad.stderr).toBe('swathe plan: bad.json: telescope.aperture_m must be a number between 1 and 100000, got "big"\n');
     const good = run('plan', 'good.json', '--out', 'o');
     expect([good.status, good.stderr]).toEqual([0, '']);
-    expect(readdirSync(join(d, 'o')).sort()).toEqual(['antenna_temp.csv', 'coverage.csv', 'coverage.fits', 'summary.json', 'track.csv']);
+    expect(readdirSync(join(d, 'o')).sort()).toEqual(['antenna_temp.csv', 'coverage.csv', 'coverage.fits', 'depth_area.csv', 'summary.json', 'track.csv']);
   });
 
   it('Ctrl-C during a run exits 130, keeps the earlier files and leaves no temporary file', async () => {

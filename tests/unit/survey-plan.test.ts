@@ -38,7 +38,8 @@ function expectSiteMatchesPlan(r: SurveyResult, q: number, p: PlanResult): void 
 }
 
 async function planOf(s: Scenario, r: SurveyResult, q: number): Promise<PlanResult> {
-  return runPlan({ ...s, site: { body: s.site.body as BodyName, lat_deg: r.lat_deg[q], lon_deg: r.lon_deg[q] } });
+  // the survey's noise uses the uniform sky; the plan matches it with sky.model uniform
+  return runPlan({ ...s, site: { body: s.site.body as BodyName, lat_deg: r.lat_deg[q], lon_deg: r.lon_deg[q] }, sky: { model: 'uniform' } });
 }
 
 describe('survey figures equal a direct plan of each site (within 1%)', () => {

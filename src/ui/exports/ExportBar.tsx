@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import type { PlanResult } from '../../core/types';
 import { antennaTempCsv, coverageCsv, trackCsv } from '../../core/export/csv';
+import { depthAreaCsv } from '../../core/sky/depthArea';
 import { coverageFits } from '../../core/export/fits';
 import { summaryJson } from '../../core/export/summary';
 import { renderSkyMapPng } from '../skymap/exportPng';
@@ -63,6 +64,9 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
     { label: 'Download track CSV', desc: 'track.csv: zenith, Sun and Earth per sample', run: () => downloadText(trackCsv(result), `${stem}-track.csv`, 'text/csv') },
     ...(result.t_ant
       ? [{ label: 'Download antenna temperature CSV', desc: 'antenna_temp.csv: antenna temperature per sample, every frequency', run: () => downloadText(antennaTempCsv(result), `${stem}-antenna_temp.csv`, 'text/csv') }]
+      : []),
+    ...(result.noise_maps
+      ? [{ label: 'Download depth-area CSV', desc: 'depth_area.csv: sky area at or below each noise level, every frequency', run: () => downloadText(depthAreaCsv(result), `${stem}-depth_area.csv`, 'text/csv') }]
       : []),
     {
       label: 'Download FITS',
