@@ -244,6 +244,8 @@ export interface PlanResult {
   covered?: Uint8Array[];
   /** added: antenna temperature per sample (K), one series per frequency (ARCHITECTURE.md section 6) */
   t_ant?: { series: Float32Array[]; ground_fraction: number[]; ground_included: boolean };
+  /** added: the sky model's brightness (K) at each frequency, a RING map in its own coordinates (for the app's sky-temperature view) */
+  sky_k?: { nside: number; coordsys: 'G' | 'C' | 'E'; values: Float32Array }[];
   /** added: usable flags per frequency (identical ones are the same array); `usable` is their union */
   usable_by_freq?: Uint8Array[];
 }

@@ -4,6 +4,7 @@
 
 import type { PlanResult, Scenario } from '../core/types';
 import type { FromWorker, ToWorker } from './workerHost';
+import type { LoadedSkyMap } from '../core/sky/model';
 import { CancelledError } from './runPlan';
 
 export { CancelledError };
@@ -18,7 +19,8 @@ export interface WorkerLike {
 }
 
 export interface BrowserEngine {
-  run(scenario: Scenario, onProgress?: (stage: string, fraction: number) => void): Promise<PlanResult>;
+  /** `skyMaps`: the read maps of a `map` sky model, in the order of `sky.maps` */
+  run(scenario: Scenario, onProgress?: (stage: string, fraction: number) => void, skyMaps?: LoadedSkyMap[]): Promise<PlanResult>;
   cancel(): void;
   dispose(): void;
 }
@@ -83,7 +85,7 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
   };
 
   return {
-    run(scenario, onProgress) {
+    run(scenario, onProgress, skyMaps) {
       if (disposed) return Promise.reject(new Error('This engine has been disposed; create a new one.'));
       // A newer run replaces one in progress; the worker aborts the old one when it reads the new message.
       settle(new CancelledError('Replaced by a newer run'));
@@ -91,7 +93,7 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
       return new Promise<PlanResult>((resolve, reject) => {
         pending = { id, resolve, reject, onProgress };
         try {
-          (worker ?? spawn()).postMessage({ type: 'run', id, scenario });
+          (worker ?? spawn()).postMessage({ type: 'run', id, scenario, ...(skyMaps && skyMaps.length ? { skyMaps } : {}) });
         } catch (e) {
           kill();
           settle(new Error(`The computation worker could not be started: ${e instanceof Error ? e.message : String(e)}`));

@@ -181,8 +181,10 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   const tSegs = segmentsOf(s);
   const maskFree = !s.constraints.horizon_mask || s.constraints.horizon_mask.every((p) => p[1] <= 0);
   const tGrids: ReturnType<typeof antennaTempGrid>[][] = [];
+  const skyK: NonNullable<PlanResult['sky_k']> = [];
   for (let k = 0; k < freqsMhz.length; k++) {
     const g = await d.run('antenna temperature', sky.prepare(freqsMhz[k]), (0.3 * k) / freqsMhz.length, (0.3 * (k + 0.8)) / freqsMhz.length);
+    skyK.push({ nside: g.nside, coordsys: g.coordsys, values: g.values });
     const row = [];
     for (let gi = 0; gi < tSegs.length; gi++) {
       row.push(antennaTempGrid(antennaBeam(s, freqsMhz[k], gi), g, { maskFree }));
@@ -361,6 +363,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   const result: PlanResult = {
     scenario: s, track, usable, maps, summary, noise_maps: noiseMaps, covered: coveredMasks, usable_by_freq: usableByFreq,
     t_ant: { series: tAnt.t_ant_k, ground_fraction: tAnt.ground_fraction, ground_included: tAnt.ground_included },
+    sky_k: skyK,
   };
   internals.set(result, { limits, hits });
   return result;

@@ -3,9 +3,11 @@
 // real Worker.
 
 import type { PlanResult, Scenario, Track } from '../core/types';
+import type { LoadedSkyMap } from '../core/sky/model';
 import { runPlan } from './runPlan';
 
-export type ToWorker = { type: 'run'; id: number; scenario: Scenario };
+/** `skyMaps`: the maps of `sky.maps` the app read from its storage, in that order */
+export type ToWorker = { type: 'run'; id: number; scenario: Scenario; skyMaps?: LoadedSkyMap[] };
 export type FromWorker =
   | { type: 'progress'; id: number; stage: string; fraction: number }
   | { type: 'result'; id: number; result: PlanResult }
@@ -42,6 +44,9 @@ export function transferableCopy(r: PlanResult): { copy: PlanResult; transfer: A
   const copy: PlanResult = { scenario: r.scenario, track, usable: dup(r.usable), maps: r.maps.map(dup), summary: r.summary };
   if (r.noise_maps) copy.noise_maps = r.noise_maps.map(dup);
   if (r.covered) copy.covered = r.covered.map(dup);
+  if (r.t_ant) copy.t_ant = { ...r.t_ant, series: r.t_ant.series.map(dup) };
+  // the sky model's grids are cached in the worker between runs: copies go, the worker keeps its own
+  if (r.sky_k) copy.sky_k = r.sky_k.map((g) => ({ ...g, values: dup(g.values) }));
   if (r.usable_by_freq) {
     // identical flags stay one array (structured cloning keeps shared references)
     const once = new Map<Uint8Array, Uint8Array>();
@@ -65,6 +70,7 @@ export function attachPlanWorker(scope: WorkerScopeLike): void {
       const result = await runPlan(msg.scenario, {
         signal: ac.signal,
         reuse: last,
+        skyMaps: msg.skyMaps,
         onProgress: (stage, fraction) => scope.postMessage({ type: 'progress', id, stage, fraction }),
       });
       last = result;

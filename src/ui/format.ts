@@ -43,8 +43,11 @@ export function duration(seconds: number): string {
 }
 
 /** The SI-prefixed kelvin unit for a magnitude (BIPM SI Brochure, Table 7), and the factor from K to it. */
-export function kelvinUnit(magnitude: number): { factor: number; unit: 'K' | 'mK' | 'µK' | 'nK' } {
+export function kelvinUnit(magnitude: number): { factor: number; unit: 'GK' | 'MK' | 'K' | 'mK' | 'µK' | 'nK' } {
   const a = Math.abs(magnitude);
+  // the sky below a few MHz reaches 1e7-1e10 K: mega- and gigakelvin keep the digits short
+  if (a >= 1e9 && Number.isFinite(a)) return { factor: 1e-9, unit: 'GK' };
+  if (a >= 1e6 && Number.isFinite(a)) return { factor: 1e-6, unit: 'MK' };
   if (!(a > 0) || a >= 1 || !Number.isFinite(a)) return { factor: 1, unit: 'K' };
   if (a >= 1e-3) return { factor: 1e3, unit: 'mK' };
   if (a >= 1e-6) return { factor: 1e6, unit: 'µK' };

@@ -11,6 +11,9 @@ describe('kelvin', () => {
     expect(kelvin(2.5e-8)).toBe('25 nK');
     expect(kelvin(1)).toBe('1 K');
     expect(kelvin(41234.5)).toBe('41,200 K');
+    expect(kelvin(999_000)).toBe('999,000 K');
+    expect(kelvin(1.234e7)).toBe('12.3 MK');
+    expect(kelvin(4.4e10)).toBe('44 GK');
     expect(kelvin(0)).toBe('0 K');
     expect(kelvin(Number.NaN)).toBe('—');
   });

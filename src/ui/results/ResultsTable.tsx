@@ -3,6 +3,7 @@ import type { PlanResult } from '../../core/types';
 import { fixed, hours, percent, sig, wavelength, kelvin } from '../format';
 import { ScrollCue } from '../ScrollCue';
 import { summaryHours } from '../../core/export/summary';
+import { skyLabel } from '../panel/skyLabels';
 
 // One row per frequency, straight from PlanResult.summary (the same figures as summary.json).
 
@@ -13,6 +14,12 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
   const diffraction = result.scenario.constraints.diffraction !== undefined;
   const perFreq = s.frequencies.some((f) => f.usable_hours !== undefined && f.usable_hours !== s.hours.usable);
   const notes = s.frequencies.map((f, i) => ({ f, i })).filter(({ f }) => f.usable_note);
+  // issue 12: antenna temperature over usable time, and how much of the beam saw the ground
+  const hasTAnt = s.frequencies.some((f) => f.t_ant_median_k !== undefined);
+  const skyName = skyLabel(result.scenario.sky?.model ?? 'galaxy');
+  const groundLeft = result.t_ant && !result.t_ant.ground_included
+    ? s.frequencies.map((f, i) => ({ f, i })).filter(({ f }) => (f.t_ant_ground_fraction ?? 0) > 0)
+    : [];
   return (
     <div>
       <p className="table-cap" id={capId}>
@@ -39,6 +46,11 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               Beam near galactic centre (&lt; {s.galactic.center_radius_deg}°)
             </th>
             <th scope="col" title="Median over the covered sky of the radiometer noise σ_T (model stated under the table)">Noise</th>
+            {hasTAnt && (
+              <th scope="col" title={`Antenna temperature over usable time: the sky model's brightness averaged over the beam (${skyName})`}>
+                Antenna temp. median (min–max)
+              </th>
+            )}
           </tr>
         </thead>
         <tbody>
@@ -72,6 +84,13 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               <td>{hours(f.usable_hours_beam_in_band)} h</td>
               <td>{hours(f.usable_hours_beam_near_center)} h</td>
               <td data-testid={`noise-cell-${i}`}>{f.noise_median_k !== undefined && Number.isFinite(f.noise_median_k) ? kelvin(f.noise_median_k, 4) : '—'}</td>
+              {hasTAnt && (
+                <td data-testid={`tant-cell-${i}`} className="nowrap" data-median={f.t_ant_median_k ?? ''} data-min={f.t_ant_min_k ?? ''} data-max={f.t_ant_max_k ?? ''}>
+                  {f.t_ant_median_k !== undefined && Number.isFinite(f.t_ant_median_k)
+                    ? <>{kelvin(f.t_ant_median_k, 3)} <span className="muted">({kelvin(f.t_ant_min_k!, 3)} – {kelvin(f.t_ant_max_k!, 3)})</span></>
+                    : '—'}
+                </td>
+              )}
             </tr>
           ))}
         </tbody>
@@ -81,6 +100,19 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
         <ul className="table-note usable-notes" data-testid="usable-notes">
           {notes.map(({ f, i }) => <li key={i} id={`${capId}-note-${i}`}>† {sig(f.mhz, 6)} MHz: {f.usable_note}.</li>)}
         </ul>
+      )}
+      {hasTAnt && (
+        <p className="table-note" data-testid="tant-note">
+          Antenna temperature: the {skyName} sky model averaged over the beam as it drifts, over usable time.
+          {result.t_ant?.ground_included && result.scenario.sky?.ground_temp_k !== undefined &&
+            ` The beam's share below the horizon or the mask sees the ground at ${kelvin(result.scenario.sky.ground_temp_k, 4)}.`}
+          {groundLeft.length > 0 && (
+            <span data-testid="ground-left">
+              {' '}Left out (no ground temperature set), as a share of the beam:{' '}
+              {groundLeft.map(({ f }) => `${sig(f.mhz, 6)} MHz ${percent(f.t_ant_ground_fraction!)}`).join(', ')}; set a ground temperature in the Sky section to count it.
+            </span>
+          )}
+        </p>
       )}
       {diffraction && (
         <p className="table-note">

@@ -1,6 +1,7 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { PlanResult, Scenario } from '../../core/types';
 import { createBrowserEngine } from '../../engine/browserEngine';
+import type { LoadedSkyMap } from '../../core/sky/model';
 
 // Drives the worker engine: one run at a time, progress, cancel, crash recovery.
 // A cancelled or failed run never replaces the result on screen.
@@ -20,7 +21,7 @@ export interface EngineState {
   lastMs: number | null;
 }
 
-export function useEngine(): EngineState & { run: (s: Scenario) => void; cancel: () => void } {
+export function useEngine(): EngineState & { run: (s: Scenario, skyMaps?: LoadedSkyMap[]) => void; cancel: () => void } {
   const engineRef = useRef<Engine | null>(null);
   const runId = useRef(0);
   const runningRef = useRef(false);
@@ -53,7 +54,7 @@ export function useEngine(): EngineState & { run: (s: Scenario) => void; cancel:
     };
   }, [drop]);
 
-  const run = useCallback((s: Scenario) => {
+  const run = useCallback((s: Scenario, skyMaps?: LoadedSkyMap[]) => {
     const id = ++runId.current;
     // A newer request replaces a run in progress: stop the old worker first.
     // A newer request supersedes a run in progress (the engine rejects the old one; its id is stale).
@@ -75,7 +76,7 @@ export function useEngine(): EngineState & { run: (s: Scenario) => void; cancel:
         const f = typeof stage === 'number' ? stage : typeof fraction === 'number' ? fraction : 0;
         const name = typeof stage === 'string' ? stage : '';
         setSt((p) => (p.running ? { ...p, stage: name, fraction: f } : p));
-      })
+      }, skyMaps)
       .then((result) => {
         if (id !== runId.current) return;
         runningRef.current = false;
