@@ -30,6 +30,11 @@ import { useSurvey } from './survey/useSurvey';
 import { SurveyPanel } from './survey/SurveyPanel';
 import { QuantitySelect } from './sensitivity/QuantitySelect';
 import { NoiseNote } from './sensitivity/NoiseNote';
+import type { FieldIssue } from '../core/types';
+import { readHealpixFits, SkyMapError, SKY_MAP_LIMITS, type HealpixMap } from '../core/sky/fitsMap';
+import { checkSkyMaps, type LoadedSkyMap } from '../core/sky/model';
+import { getSkyMap, isQuotaError, putSkyMap } from './state/skyMapStore';
+import { withMapRow, type SkyMapStatus } from './panel/SkyFields';
 
 // The planner shell: scenario draft -> validated scenario -> worker run ->
 // result views. The last good result stays on screen whatever the draft holds.
@@ -69,11 +74,21 @@ export function App() {
   const parsed = useMemo(() => parseScenario(draftToCandidate(draft)), [draft]);
   const scenario: Scenario | null = parsed.ok ? parsed.scenario : null;
   const estimate = useMemo(() => (scenario ? estimateRun(scenario) : null), [scenario]);
+
+  // the user's sky maps: bytes in IndexedDB by file name, read maps in memory
+  const [skyLoaded, setSkyLoaded] = useState<Record<string, HealpixMap>>({});
+  const [skyStatus, setSkyStatus] = useState<Record<string, SkyMapStatus>>({});
+  const [skyMsg, setSkyMsg] = useState<{ text: string; error: boolean } | null>(null);
+  const [skyVersion, setSkyVersion] = useState(0);
+  const skyLoadedRef = useRef(skyLoaded);
+  skyLoadedRef.current = skyLoaded;
+  const skyIssues = useMemo(() => mapModelIssues(scenario, skyLoaded, skyStatus), [scenario, skyLoaded, skyStatus]);
+
   const issues = useMemo(
-    () => new IssueIndex(appIssues([...(parsed.ok ? [] : parsed.issues), ...(estimate?.problems ?? [])])),
-    [parsed, estimate],
+    () => new IssueIndex(appIssues([...(parsed.ok ? [] : parsed.issues), ...(estimate?.problems ?? []), ...skyIssues])),
+    [parsed, estimate, skyIssues],
   );
-  const runnable = scenario !== null && estimate !== null && estimate.problems.length === 0;
+  const runnable = scenario !== null && estimate !== null && estimate.problems.length === 0 && skyIssues.length === 0;
   // site survey and noise map
   const survey = useSurvey(runnable ? scenario : null);
   const [quantity, setQuantity] = useState<SkyQuantity>('exposure');
@@ -86,8 +101,81 @@ export function App() {
 
   const start = useCallback((s: Scenario) => {
     requested.current = scenarioToJson(s);
-    engine.run(s);
+    engine.run(s, loadedFor(s, skyLoadedRef.current));
   }, [engine]);
+
+  // Maps the draft names: read from this browser's storage once; a name not stored is reported, not guessed.
+  const mapNames = (draft.skyMaps ?? []).map((m) => m.file).join('\n');
+  useEffect(() => {
+    for (const name of mapNames ? mapNames.split('\n') : []) {
+      if (skyStatus[name]) continue;
+      setSkyStatus((p) => ({ ...p, [name]: 'loading' }));
+      getSkyMap(name).then((bytes) => {
+        if (!bytes) {
+          setSkyStatus((p) => ({ ...p, [name]: 'missing' }));
+          if ((draft.skyModel ?? 'galaxy') === 'map') {
+            setNotices((p) => [...p, `The scenario names the sky map ${name}, which this browser does not hold (a link or a scenario file carries only the map's name): load the file again in the Sky section.`]);
+          }
+          return;
+        }
+        const map = readHealpixFits(bytes, name);
+        setSkyLoaded((p) => ({ ...p, [name]: map }));
+        setSkyStatus((p) => ({ ...p, [name]: 'loaded' }));
+        setSkyVersion((v) => v + 1);
+      }).catch((e: unknown) => {
+        setSkyStatus((p) => ({ ...p, [name]: 'missing' }));
+        setSkyMsg({ text: `The stored sky map ${name} could not be read back (${e instanceof Error ? e.message : String(e)}): load the file again.`, error: true });
+      });
+    }
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [mapNames]);
+
+  const addSkyFiles = async (files: File[]) => {
+    for (const file of files) {
+      const name = file.name;
+      if (file.size > SKY_MAP_LIMITS.max_file_bytes) {
+        setSkyMsg({ text: `${name} was not loaded: it is ${(file.size / 2 ** 20).toFixed(0)} MB, more than the ${SKY_MAP_LIMITS.max_file_bytes / 2 ** 20} MB a sky map may be. Your sky settings are unchanged.`, error: true });
+        continue;
+      }
+      let bytes: Uint8Array;
+      let map: HealpixMap;
+      try {
+        bytes = new Uint8Array(await file.arrayBuffer());
+        map = readHealpixFits(bytes, name);
+        // the maps already listed must agree with it in coordinates and nside
+        const others: LoadedSkyMap[] = (draft.skyMaps ?? []).filter((r) => r.file !== name && skyLoadedRef.current[r.file])
+          .map((r, i) => ({ file: r.file, frequency_mhz: i + 1, map: skyLoadedRef.current[r.file] }));
+        const all = [...others, { file: name, frequency_mhz: others.length + 1, map }];
+        checkSkyMaps({ model: 'map', maps: all.map((m) => ({ file: m.file, frequency_mhz: m.frequency_mhz })) }, all);
+      } catch (e) {
+        const why = e instanceof SkyMapError ? e.message : `${name} could not be read: ${e instanceof Error ? e.message : String(e)}`;
+        setSkyMsg({ text: `${why.replace(/^sky\.maps: /, '')} Your sky settings are unchanged.`, error: true });
+        continue;
+      }
+      setSkyLoaded((p) => ({ ...p, [name]: map }));
+      setSkyStatus((p) => ({ ...p, [name]: 'loaded' }));
+      setSkyVersion((v) => v + 1);
+      setDraft((d) => ({ ...d, skyModel: 'map', skyMaps: withMapRow(d.skyMaps ?? [], name) }));
+      const what = `${name}: nside ${map.fileNside}${map.nside !== map.fileNside ? ` (used at ${map.nside})` : ''}, ${map.ordering}, coordinates ${map.coordsys}, unit ${map.unit}`;
+      try {
+        await putSkyMap(name, bytes);
+        setSkyMsg({ text: `Loaded ${what}; kept in this browser's storage.`, error: false });
+      } catch (e) {
+        setSkyMsg({
+          text: isQuotaError(e)
+            ? `Loaded ${what}, but this browser's storage is full, so it is kept only until the page is closed: free some site data or load it again next time.`
+            : `Loaded ${what}, but it could not be kept in this browser's storage (${e instanceof Error ? e.message : String(e)}): load it again next time.`,
+          error: true,
+        });
+      }
+    }
+  };
+
+  // a map read after the scenario was already valid (from storage, or a file replaced under the same name): compute with it
+  useEffect(() => {
+    if (skyVersion > 0 && runnable && scenario!.sky?.model === 'map' && auto) start(scenario!);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [skyVersion]);
 
   // the last valid scenario: what a replacement sets aside when the form holds something invalid
   const lastGood = useRef<Scenario>(startup.scenario);
@@ -248,7 +336,8 @@ export function App() {
             Set the site (type it, or click the globe), the span and the telescope. Short runs recompute as you type;
             the downloads sit under the map.
           </p>
-          <ScenarioPanel draft={draft} issues={issues} onChange={patch} />
+          <ScenarioPanel draft={draft} issues={issues} onChange={patch}
+            sky={{ status: skyStatus, message: skyMsg, onFiles: (f) => void addSkyFiles(f) }} />
         </aside>
         <main className="main">
           <RunBar
@@ -357,4 +446,33 @@ export function App() {
       </div>
     </div>
   );
+}
+
+/** The read maps of a map-model scenario, in the order of `sky.maps` (empty for the other models). */
+function loadedFor(s: Scenario, loaded: Record<string, HealpixMap>): LoadedSkyMap[] {
+  if (s.sky?.model !== 'map') return [];
+  return (s.sky.maps ?? []).filter((m) => loaded[m.file]).map((m) => ({ file: m.file, frequency_mhz: m.frequency_mhz, map: loaded[m.file] }));
+}
+
+/** Problems of a map-model scenario the parser cannot see: a map not in memory, maps that do not agree. */
+function mapModelIssues(s: Scenario | null, loaded: Record<string, HealpixMap>, status: Record<string, SkyMapStatus>): FieldIssue[] {
+  if (!s || s.sky?.model !== 'map') return [];
+  const out: FieldIssue[] = [];
+  (s.sky.maps ?? []).forEach((m) => {
+    if (loaded[m.file]) return;
+    out.push({
+      field: 'sky.maps',
+      message: status[m.file] === 'loading'
+        ? `The sky map ${m.file} is being read from this browser's storage.`
+        : `The sky map ${m.file} (${m.frequency_mhz} MHz) is not in this browser's storage: a link or a scenario file carries only the map's name. Load the file again here.`,
+    });
+  });
+  if (out.length) return out;
+  try {
+    checkSkyMaps(s.sky, loadedFor(s, loaded));
+  } catch (e) {
+    if (e instanceof SkyMapError) return [{ field: e.field, message: e.message }];
+    throw e;
+  }
+  return [];
 }

@@ -7,6 +7,14 @@ import { FrequencyList } from './FrequencyList';
 import { HorizonMask } from './HorizonMask';
 import { ShieldingFields } from './ShieldingFields';
 import { SensitivityFields } from '../sensitivity/SensitivityFields';
+import { SkyFields, type SkyMapStatus } from './SkyFields';
+
+/** What the sky section needs from the app: the maps' state in storage and the file handler. */
+export interface SkyPanelProps {
+  status: Record<string, SkyMapStatus>;
+  message: { text: string; error: boolean } | null;
+  onFiles: (files: File[]) => void;
+}
 
 // The scenario form. It edits the draft (text as typed); validation comes from
 // the scenario parser's FieldIssues, shown beside the field they name.
@@ -39,10 +47,11 @@ const LAT_HINT: Record<BodyName, string> = {
 
 const NSIDES = [8, 16, 32, 64, 128, 256, 512, 1024];
 
-export function ScenarioPanel({ draft, issues, onChange }: {
+export function ScenarioPanel({ draft, issues, onChange, sky }: {
   draft: Draft;
   issues: IssueIndex;
   onChange: (patch: Partial<Draft>) => void;
+  sky: SkyPanelProps;
 }) {
   const startMs = parseUtcMs(draft.start.trim());
   const other = issues.unmatched(SHOWN_FIELDS);
@@ -138,6 +147,11 @@ export function ScenarioPanel({ draft, issues, onChange }: {
           onToggle={(v) => onChange({ earthOn: v })} onValue={(v) => onChange({ earthMax: v })} />
         <HorizonMask draft={draft} issues={issues} onChange={onChange} />
         <ShieldingFields draft={draft} issues={issues} onChange={onChange} />
+      </fieldset>
+
+      <fieldset>
+        <legend id="sky-head">Sky</legend>
+        <SkyFields draft={draft} issues={issues} onChange={onChange} {...sky} />
       </fieldset>
 
       <fieldset>

@@ -1,4 +1,4 @@
-import type { BeamModel, BodyName, FieldIssue, Scenario } from '../../core/types';
+import type { BeamModel, BodyName, FieldIssue, Scenario, SkyModelName } from '../../core/types';
 import { HI_REST_MHZ } from '../../core/beam';
 import { formNumber } from '../../core/scenario';
 import { IONOSPHERE_TYPICAL_MHZ } from '../../core/shielding/plasma';
@@ -51,8 +51,15 @@ export interface Draft {
   nside: string;
   band: string;
   centre: string;
-  /** the sky model (`sky`), which the form does not edit yet: kept as loaded so nothing is lost */
-  sky?: Scenario['sky'];
+  /** the sky model (`sky`): galaxy (default, written as no `sky` key unless a ground temperature is set), uniform or map */
+  skyModel?: SkyModelName;
+  /** model map: the maps by file name (their bytes are in the browser's storage) and their frequencies as typed; kept while another model is chosen */
+  skyMaps?: { id: number; file: string; mhz: string }[];
+  /** model map with one map: the spectral index beta, as typed */
+  skyIndex?: string;
+  /** sky.ground_temp_k: on/off and the value as typed (kept while off) */
+  groundOn?: boolean;
+  groundK?: string;
   /** optional sensitivity inputs; '' = the default in stats.ts SENSITIVITY_DEFAULTS */
   bandwidth: string;
   receiverK: string;
@@ -113,7 +120,11 @@ export function scenarioToDraft(s: Scenario): Draft {
     nside: num(s.map.nside),
     band: num(s.map.galactic_band_deg),
     centre: num(s.map.galactic_center_radius_deg),
-    ...(s.sky !== undefined ? { sky: s.sky } : {}),
+    skyModel: s.sky?.model ?? 'galaxy',
+    skyMaps: (s.sky?.maps ?? []).map((m) => ({ id: newId(), file: m.file, mhz: num(m.frequency_mhz) })),
+    skyIndex: s.sky?.spectral_index === undefined ? DRAFT_DEFAULTS.skyIndex : num(s.sky.spectral_index),
+    groundOn: s.sky?.ground_temp_k !== undefined,
+    groundK: s.sky?.ground_temp_k === undefined ? DRAFT_DEFAULTS.groundK : num(s.sky.ground_temp_k),
     bandwidth: s.telescope.bandwidth_mhz === undefined ? '' : num(s.telescope.bandwidth_mhz),
     receiverK: s.telescope.receiver_temp_k === undefined ? '' : num(s.telescope.receiver_temp_k),
   };
@@ -133,7 +144,17 @@ export function freqRowMhz(r: FreqRow): number | string {
 }
 
 /** Starting values of the shielding rows when a scenario does not set them (an invented crater rim). */
-export const DRAFT_DEFAULTS = { rimM: '600', attDb: '15', sepDeg: '30' } as const;
+export const DRAFT_DEFAULTS = { rimM: '600', attDb: '15', sepDeg: '30', skyIndex: '-2.55', groundK: '250' } as const;
+
+/** The draft's `sky`, or undefined for the default (galaxy, ground left out). */
+function skyCandidate(d: Draft): unknown {
+  const model = d.skyModel ?? 'galaxy';
+  const ground = d.groundOn ? { ground_temp_k: numOrText(d.groundK ?? '') } : {};
+  if (model === 'galaxy') return d.groundOn ? { model, ...ground } : undefined;
+  if (model === 'uniform') return { model, ...ground };
+  const maps = (d.skyMaps ?? []).map((m) => ({ file: m.file, frequency_mhz: numOrText(m.mhz) }));
+  return { model, maps, ...(maps.length === 1 ? { spectral_index: numOrText(d.skyIndex ?? '') } : {}), ...ground };
+}
 
 /** True when the mask carries a rim distance on its points (then the single rim distance is not used). */
 export function maskHasRims(d: Pick<Draft, 'maskOn' | 'mask'>): boolean {
@@ -167,7 +188,7 @@ export function draftToCandidate(d: Draft): unknown {
       ...(d.sepOn ? { sun_min_separation_deg: numOrText(d.sepDeg ?? '') } : {}),
     },
     map: { nside: numOrText(d.nside), galactic_band_deg: numOrText(d.band), galactic_center_radius_deg: numOrText(d.centre) },
-    ...(d.sky !== undefined ? { sky: d.sky } : {}),
+    ...(skyCandidate(d) !== undefined ? { sky: skyCandidate(d) } : {}),
   };
 }
 
@@ -198,5 +219,6 @@ export const SHOWN_FIELDS = [
   'telescope.aperture_m', 'telescope.beam.model', 'telescope.bandwidth_mhz', 'telescope.receiver_temp_k', 'telescope.beam.fwhm_factor', 'telescope.frequencies_mhz',
   'constraints.sun_max_elev_deg', 'constraints.earth_max_elev_deg', 'constraints.horizon_mask',
   'constraints.diffraction', 'constraints.ionosphere', 'constraints.sun_min_separation_deg',
+  'sky',
   'map.nside', 'map.galactic_band_deg', 'map.galactic_center_radius_deg',
 ] as const;

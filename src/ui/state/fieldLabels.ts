@@ -50,6 +50,11 @@ const LABELS: Record<string, string> = {
   'map.nside': 'HEALPix nside',
   'map.galactic_band_deg': 'Galactic band (°)',
   'map.galactic_center_radius_deg': 'Centre radius (°)',
+  sky: 'Sky',
+  'sky.model': 'Sky model',
+  'sky.maps': 'Sky maps',
+  'sky.spectral_index': 'Spectral index β',
+  'sky.ground_temp_k': 'Ground temperature (K)',
 };
 
 const MASK_PART = ['azimuth', 'elevation', 'rim distance'];
@@ -72,7 +77,8 @@ export function fieldLabel(path: string): string | null {
   m = /^telescope\.pointing_plan\.(\d+)(?:\.(\w+))?$/.exec(p);
   if (m) return `Pointing plan segment ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_deg$/, '').replace(/_/g, ' ')}` : ''} (from the loaded file)`;
   if (p.startsWith('telescope.beam.table.')) return LABELS['telescope.beam.table'];
-  if (p === 'sky' || p.startsWith('sky.')) return `Sky model setting ${p} (from the loaded file)`;
+  m = /^sky\.maps\.(\d+)(?:\.(\w+))?$/.exec(p);
+  if (m) return `Sky map ${Number(m[1]) + 1}${m[2] === 'frequency_mhz' ? ' frequency (MHz)' : m[2] === 'file' ? ' file' : ''}`;
   return null;
 }
 

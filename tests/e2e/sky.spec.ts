@@ -1,0 +1,78 @@
+import { test, expect, type Page } from '@playwright/test';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Scenario } from '../../src/core/types';
+import { SHORT, urlFor, guardHosts, waitForMap } from './helpers';
+
+// The sky section (issue 12): the sky model chosen in the form reaches the
+// engine, the antenna temperature in the table equals the CLI's summary.json
+// for the same scenario, and a bad map file is refused by name.
+
+let outside: string[] = [];
+test.beforeEach(async ({ context }) => {
+  outside = await guardHosts(context);
+});
+test.afterEach(() => {
+  expect(outside, 'requests to other hosts').toEqual([]);
+});
+
+function cliSummary(s: Scenario): { frequencies: { mhz: number; t_ant_median_k: number; t_ant_min_k: number; t_ant_max_k: number }[] } {
+  const dir = mkdtempSync(join(tmpdir(), 'swathe-e2e-sky-'));
+  writeFileSync(join(dir, 'scenario.json'), JSON.stringify(s));
+  execFileSync(process.execPath, ['bin/swathe.mjs', 'plan', join(dir, 'scenario.json'), '--out', join(dir, 'out')], { stdio: 'pipe' });
+  return JSON.parse(readFileSync(join(dir, 'out', 'summary.json'), 'utf8'));
+}
+
+async function tantCells(page: Page, n: number): Promise<{ median: number; min: number; max: number }[]> {
+  const out = [];
+  for (let i = 0; i < n; i++) {
+    const c = page.getByTestId(`tant-cell-${i}`);
+    out.push({ median: Number(await c.getAttribute('data-median')), min: Number(await c.getAttribute('data-min')), max: Number(await c.getAttribute('data-max')) });
+  }
+  return out;
+}
+
+test('choosing uniform instead of galaxy changes the antenna temperature in the table, equal to the CLI summary.json each time', async ({ page }) => {
+  const galaxy = cliSummary(SHORT);
+  const uniform = cliSummary({ ...SHORT, sky: { model: 'uniform' } });
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  const g = await tantCells(page, SHORT.telescope.frequencies_mhz.length);
+  galaxy.frequencies.forEach((f, i) => {
+    expect(g[i].median, `${f.mhz} MHz galaxy median`).toBe(f.t_ant_median_k);
+    expect(g[i].min).toBe(f.t_ant_min_k);
+    expect(g[i].max).toBe(f.t_ant_max_k);
+  });
+  await page.getByLabel('Sky model').selectOption('uniform');
+  await expect.poll(async () => (await tantCells(page, 1))[0].median, { timeout: 60_000 }).not.toBe(g[0].median);
+  await waitForMap(page);
+  const u = await tantCells(page, SHORT.telescope.frequencies_mhz.length);
+  uniform.frequencies.forEach((f, i) => {
+    expect(u[i].median, `${f.mhz} MHz uniform median`).toBe(f.t_ant_median_k);
+    // a uniform sky is seen the same in every direction: min = median = max (common practice: T_ant of a uniform sky is T_sky)
+    expect(u[i].min).toBe(f.t_ant_min_k);
+    expect(u[i].max).toBe(f.t_ant_max_k);
+  });
+  await expect(page.getByTestId('tant-cell-0')).toContainText('K');
+});
+
+test('a bad FITS file gets a message naming it and the form keeps what the user had', async ({ page }) => {
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  await page.getByRole('textbox', { name: 'Latitude', exact: true }).fill('-23.25');
+  await page.getByLabel('Sky model').selectOption('map');
+  // not FITS at all
+  await page.getByLabel('Sky map FITS file').setInputFiles({ name: 'notes-408.fits', mimeType: 'application/fits', buffer: Buffer.from('this is not a FITS file\n'.repeat(200)) });
+  await expect(page.getByTestId('sky-file-msg')).toContainText('notes-408.fits');
+  await expect(page.getByTestId('sky-file-msg')).toContainText('unchanged');
+  // a FITS file with only a primary header: FITS, but not a HEALPix map (FITS Standard 4.0: 80-character cards in 2880-byte blocks)
+  const cards = ['SIMPLE  =                    T', 'BITPIX  =                    8', 'NAXIS   =                    0', 'END'];
+  const header = Buffer.from(cards.map((c) => c.padEnd(80)).join('').padEnd(2880), 'ascii');
+  await page.getByLabel('Sky map FITS file').setInputFiles({ name: 'empty-primary.fits', mimeType: 'application/fits', buffer: header });
+  await expect(page.getByTestId('sky-file-msg')).toContainText('empty-primary.fits');
+  await expect(page.getByTestId('sky-maps').locator('.sky-map-row')).toHaveCount(0);
+  await expect(page.getByRole('textbox', { name: 'Latitude', exact: true })).toHaveValue('-23.25');
+  await expect(page.getByLabel('Sky model')).toHaveValue('map');
+});
