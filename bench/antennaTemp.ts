@@ -13,7 +13,7 @@ import type { Scenario } from '../src/core/types';
 import { drain } from '../src/core/types';
 import { computeTrack } from '../src/core/ephemeris';
 import { antennaBeam, horizonFrames } from '../src/core/antenna';
-import { antennaTempGrid, antennaTempStage, beamQuadrature } from '../src/core/sky/antennaTemp';
+import { antennaTempGrid, antennaTempStage, beamQuadrature, stepWidthRad } from '../src/core/sky/antennaTemp';
 import { skyModelFor } from '../src/core/sky/model';
 
 const DAY_MS = 86_400_000;
@@ -61,7 +61,7 @@ export async function benchAntennaTemp(log: (l: string) => void): Promise<{ name
       if (dt < best) { best = dt; bestCpu = (cu.user + cu.system) / 1e6; grids = g; res = r.t_ant_k; }
     }
     // brute force on a slice, with a finer quadrature (half the spacing)
-    const fine = beams.map((b) => antennaTempGrid(b, sky.at(freqs[beams.indexOf(b)]), { maskFree: true, quad: beamQuadrature(b, b.feeds[0].pattern.narrowRad / 16) }));
+    const fine = beams.map((b) => antennaTempGrid(b, sky.at(freqs[beams.indexOf(b)]), { maskFree: true, quad: beamQuadrature(b, stepWidthRad(b) / 16) }));
     const fr = new Float64Array(9);
     let maxDev = 0;
     const devK = freqs.map(() => 0);

@@ -41,6 +41,17 @@ export interface BeamQuadrature {
   maxZenithRad: number;
 }
 
+/**
+ * The width that sets the quadrature and grid spacing: the beam's narrowest
+ * width, but no more than this (a broad beam over a sky with a sharp galactic
+ * plane still needs fine steps).
+ */
+export const MAX_STEP_WIDTH_RAD = (15 * Math.PI) / 180;
+
+export function stepWidthRad(beam: AntennaBeam): number {
+  return Math.min(beam.feeds[0].pattern.narrowRad, MAX_STEP_WIDTH_RAD);
+}
+
 /** Quadrature spacing per narrowest beam width. */
 export const QUAD_PER_WIDTH = 6;
 /** Sky resampling nodes per map pixel (skySampler). */
@@ -52,7 +63,7 @@ export const GRID_PER_WIDTH = 6;
  * Points on rings around each feed's boresight out to its pattern's cut-off,
  * spaced `res` radians, weighted B sin(theta) dtheta dphi.
  */
-export function beamQuadrature(beam: AntennaBeam, res = beam.feeds[0].pattern.narrowRad / QUAD_PER_WIDTH): BeamQuadrature {
+export function beamQuadrature(beam: AntennaBeam, res = stepWidthRad(beam) / QUAD_PER_WIDTH): BeamQuadrature {
   const xs: number[] = [], ys: number[] = [], zs: number[] = [], ws: number[] = [];
   let ground = 0, maxZ = 0;
   const a = new Float64Array(3);
@@ -206,7 +217,7 @@ export function frameOfAngles(theta: number, phi: number, psi: number, out: Floa
 }
 
 export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFree: boolean; quad?: BeamQuadrature } = { maskFree: true }): AntennaTempGrid {
-  const narrow = beam.feeds[0].pattern.narrowRad;
+  const narrow = stepWidthRad(beam);
   const quad = opts.quad ?? beamQuadrature(beam);
   const skyRes = Math.sqrt((4 * Math.PI) / nside2npix(sky.nside));
   // finer than the map's pixel where the beam is narrow enough to see the difference
@@ -263,17 +274,9 @@ export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFre
     }
     return v;
   };
-  /** value on one row at phi, psi: linear in phi between the row's nodes, linear in psi */
-  const onRow = (row: number, phi: number, j0: number, j1: number, fj: number): number => {
-    const nr = rowN[row];
-    const q = (phi * nr) / TWO_PI;
-    let c0 = Math.floor(q);
-    const fc = q - c0;
-    if (c0 >= nr) c0 -= nr;
-    const c1 = c0 + 1 === nr ? 0 : c0 + 1;
-    if (nPsi === 1) return (1 - fc) * cell(row, c0, 0) + fc * cell(row, c1, 0);
-    return (1 - fc) * ((1 - fj) * cell(row, c0, j0) + fj * cell(row, c0, j1)) + fc * ((1 - fj) * cell(row, c1, j0) + fj * cell(row, c1, j1));
-  };
+  // consecutive samples mostly fall in the same grid block: its 8 corner values are kept
+  let kRow = -1, kCa = -1, kCb = -1, kJ = -1;
+  let a00 = 0, a01 = 0, a10 = 0, a11 = 0, b00 = 0, b01 = 0, b10 = 0, b11 = 0;
   const atAngles = (theta: number, phi: number, psi: number): number => {
     let j0 = 0, j1 = 0, fj = 0;
     if (nPsi > 1) {
@@ -284,10 +287,31 @@ export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFre
       j1 = j0 + 1 === nPsi ? 0 : j0 + 1;
     }
     const tq = theta / dTheta - 0.5;
-    if (tq <= 0) return onRow(0, phi, j0, j1, fj);
-    if (tq >= nRows - 1) return onRow(nRows - 1, phi, j0, j1, fj);
-    const r0 = Math.floor(tq), ft = tq - r0;
-    return (1 - ft) * onRow(r0, phi, j0, j1, fj) + ft * onRow(r0 + 1, phi, j0, j1, fj);
+    let rA: number, rB: number, ft: number;
+    if (tq <= 0) { rA = rB = 0; ft = 0; } else if (tq >= nRows - 1) { rA = rB = nRows - 1; ft = 0; } else { rA = Math.floor(tq); rB = rA + 1; ft = tq - rA; }
+    const na = rowN[rA], nb = rowN[rB];
+    const qa = (phi * na) / TWO_PI, qb = (phi * nb) / TWO_PI;
+    let ca = Math.floor(qa), cb = Math.floor(qb);
+    const fa = qa - ca, fb = qb - cb;
+    if (ca >= na) ca -= na;
+    if (cb >= nb) cb -= nb;
+    const rowKey = rA * 2 + (rB === rA ? 1 : 0);
+    if (rowKey !== kRow || ca !== kCa || cb !== kCb || j0 !== kJ) {
+      const ca1 = ca + 1 === na ? 0 : ca + 1, cb1 = cb + 1 === nb ? 0 : cb + 1;
+      a00 = cell(rA, ca, j0); a10 = cell(rA, ca1, j0);
+      b00 = cell(rB, cb, j0); b10 = cell(rB, cb1, j0);
+      if (nPsi > 1) { a01 = cell(rA, ca, j1); a11 = cell(rA, ca1, j1); b01 = cell(rB, cb, j1); b11 = cell(rB, cb1, j1); }
+      kRow = rowKey; kCa = ca; kCb = cb; kJ = j0;
+    }
+    let va: number, vb: number;
+    if (nPsi === 1) {
+      va = (1 - fa) * a00 + fa * a10;
+      vb = (1 - fb) * b00 + fb * b10;
+    } else {
+      va = (1 - fa) * ((1 - fj) * a00 + fj * a01) + fa * ((1 - fj) * a10 + fj * a11);
+      vb = (1 - fb) * ((1 - fj) * b00 + fj * b01) + fb * ((1 - fj) * b10 + fj * b11);
+    }
+    return ft === 0 ? va : (1 - ft) * va + ft * vb;
   };
   const ang = new Float64Array(3);
   return {
