@@ -373,7 +373,8 @@ export function App() {
                   />
                   <div className="tools" role="group" aria-label="Time and comparison">
                     <QuantitySelect value={quantity} onChange={setQuantity} disabled={compare || diffOn}
-                      note={compare || diffOn ? 'Comparison and difference maps show exposure' : 'Colour the map by exposure or by radiometer noise'} />
+                      note={compare || diffOn ? 'Comparison and difference maps show exposure' : 'Colour the map by exposure, by radiometer noise or by the sky model\'s brightness temperature'}
+                      skyTemp={result.sky_k !== undefined} />
                     <button type="button" className="small" title="Figures of merit for a grid of sites over the body (below the results)"
                       onClick={() => { setPhoneTab('results'); requestAnimationFrame(() => document.getElementById('survey-head')?.scrollIntoView({ behavior: 'smooth', block: 'start' })); }}>
                       Site survey ↓

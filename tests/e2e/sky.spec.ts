@@ -4,7 +4,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Scenario } from '../../src/core/types';
-import { SHORT, urlFor, guardHosts, waitForMap } from './helpers';
+import { SHORT, urlFor, guardHosts, waitForMap, mapHash, MAP } from './helpers';
 
 // The sky section (issue 12): the sky model chosen in the form reaches the
 // engine, the antenna temperature in the table equals the CLI's summary.json
@@ -75,4 +75,25 @@ test('a bad FITS file gets a message naming it and the form keeps what the user 
   await expect(page.getByTestId('sky-maps').locator('.sky-map-row')).toHaveCount(0);
   await expect(page.getByRole('textbox', { name: 'Latitude', exact: true })).toHaveValue('-23.25');
   await expect(page.getByLabel('Sky model')).toHaveValue('map');
+});
+
+test('"Map shows" sky temperature draws the sky model in kelvin with a K colour bar, and its PNG downloads', async ({ page }) => {
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  const before = await mapHash(page);
+  await page.getByLabel('Map shows').selectOption('sky');
+  await expect(page.locator(MAP)).toHaveAttribute('data-quantity', 'sky');
+  const bar = page.getByTestId('sky-map-colourbar');
+  await expect(bar).toHaveAttribute('data-unit', 'K');
+  await expect(bar).toHaveAttribute('data-title', /Sky brightness temperature \((K|kK|MK|GK), logarithmic\)/);
+  await expect(bar).toHaveAttribute('aria-label', /K/);
+  expect(await mapHash(page)).not.toBe(before);
+  // the readout gives the sky's temperature under the pointer
+  const box = (await page.locator(MAP).boundingBox())!;
+  await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+  await expect(page.getByTestId('sky-temp-readout')).toContainText(/Sky at 8 MHz: [\d.,]+ (K|MK|GK)/);
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download PNG', exact: true }).click()]);
+  expect(dl.suggestedFilename()).toMatch(/-8mhz-sky-equatorial\.png$/);
+  const png = readFileSync(await dl.path());
+  expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]); // PNG signature (ISO/IEC 15948)
 });

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import type { PlanResult } from '../../core/types';
 import { antennaTempCsv, coverageCsv, trackCsv } from '../../core/export/csv';
 import { depthAreaCsv } from '../../core/sky/depthArea';
+import { skyLabel } from '../panel/skyLabels';
 import { coverageFits } from '../../core/export/fits';
 import { summaryJson } from '../../core/export/summary';
 import { renderSkyMapPng } from '../skymap/exportPng';
@@ -17,7 +18,7 @@ export interface ViewState {
   beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
   /** 'noise': the figure shows the radiometer noise map (K) instead of exposure */
-  quantity?: 'exposure' | 'noise';
+  quantity?: 'exposure' | 'noise' | 'sky';
 }
 
 /** `pngBase`: the plan the figure is drawn from (plan A in difference mode, else `result`). */
@@ -47,7 +48,7 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
         const widthPx = Math.max(1600, Math.round(2 * mapWidth));
         const what = view.diff
           ? `exposure difference B − A at ${f} MHz`
-          : view.compare ? `half-power outlines at ${result.scenario.telescope.frequencies_mhz.join(', ')} MHz` : view.quantity === 'noise' ? `radiometer noise (K) at ${f} MHz` : `exposure at ${f} MHz`;
+          : view.compare ? `half-power outlines at ${result.scenario.telescope.frequencies_mhz.join(', ')} MHz` : view.quantity === 'noise' ? `radiometer noise (K) at ${f} MHz` : view.quantity === 'sky' ? `sky brightness temperature (K) at ${f} MHz, ${skyLabel(result.scenario.sky?.model ?? 'galaxy')} sky model` : `exposure at ${f} MHz`;
         const base = pngBase ?? result;
         const title = view.diff
           ? `${base.scenario.name || 'untitled'} (A) and ${result.scenario.name || 'untitled'} (B) — ${what}`
@@ -57,7 +58,7 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
           : scenarioCaption(result.scenario, view.freqIndex, { outlines: view.compare });
         const fullCaption = view.quantity === 'noise' && !view.diff && !view.compare ? `${noiseCaption(result, view.freqIndex)} ${caption}` : caption;
         const blob = await renderSkyMapPng(base, { ...view, widthPx, title, caption: fullCaption });
-        downloadBlob(blob, `${stem}-${view.diff ? 'diff-' : ''}${view.compare ? 'compare' : `${f}mhz${view.quantity === 'noise' && !view.diff ? '-noise' : ''}`}-${view.frame}.png`);
+        downloadBlob(blob, `${stem}-${view.diff ? 'diff-' : ''}${view.compare ? 'compare' : `${f}mhz${view.quantity === 'noise' && !view.diff ? '-noise' : view.quantity === 'sky' && !view.diff ? '-sky' : ''}`}-${view.frame}.png`);
       },
     },
     { label: 'Download CSV', desc: 'coverage.csv: exposure per HEALPix pixel, every frequency', run: () => downloadText(coverageCsv(result), `${stem}-coverage.csv`, 'text/csv') },

@@ -8,6 +8,7 @@ import {
   colourBarTitle,
   formatViewValue,
   showsNoise,
+  showsSkyTemp,
   drawColourBar,
   drawOverlayLayer,
   overlayKey,
@@ -23,6 +24,8 @@ import {
 import { LookupCache, screenToJ2000, type SkyFrame } from './skyProjection';
 import { cachedCoveredMasks, coveredMasksAsync, OUTLINE_COLOURS } from './coverageOutline';
 import { diffHeadline } from '../caption';
+import { skyTempAt } from './skyTemp';
+import { kelvin } from '../format';
 
 export type { SkyFrame } from './skyProjection';
 export type { SkyScale, SkyQuantity } from './figure';
@@ -171,7 +174,7 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     canvas.dataset.frame = frame;
     canvas.dataset.scale = scale;
     canvas.dataset.compare = compare ? '1' : '0';
-    canvas.dataset.quantity = showsNoise(view) ? 'noise' : 'exposure';
+    canvas.dataset.quantity = showsNoise(view) ? 'noise' : showsSkyTemp(view) ? 'sky' : 'exposure';
     canvas.dataset.pending = raster.pending ? '1' : '0';
     setProblem(raster.problem);
     setLastRaster(raster);
@@ -205,7 +208,8 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
     ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
     ctx.clearRect(0, 0, w, h);
     drawColourBar(ctx, 4, 4, w - 8, lastRaster.scale, lastRaster.lut, colourBarTitle(view, lastRaster.scale), 1, colourBarOptions(result, view, lastRaster.scale));
-    bar.dataset.unit = showsNoise(view) ? 'K' : 'h';
+    bar.dataset.unit = showsNoise(view) || showsSkyTemp(view) ? 'K' : 'h';
+    bar.dataset.title = colourBarTitle(view, lastRaster.scale);
   }, [lastRaster, width, view, result]);
 
   const hoverAt = (clientX: number, clientY: number) => {
@@ -256,6 +260,8 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
       ? `Sky map: exposure difference at ${f} MHz, ${diff.labelB} minus ${diff.labelA}, ${frame} frame`
       : showsNoise(view)
         ? `Sky map: radiometer noise (K) at ${f} MHz, ${frame} frame, ${scale} scale`
+        : showsSkyTemp(view)
+          ? `Sky map: sky brightness temperature (K) of the sky model at ${f} MHz, ${frame} frame, logarithmic scale`
         : `Sky map: exposure at ${f} MHz, ${frame} frame, ${scale} scale`;
   const labelFull = `${label}. Arrow keys move a readout cursor.`;
   const entries = legendEntries(result, view);
@@ -327,6 +333,11 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
                   : `${diff ? `${diff.labelA} ` : ''}${formatHours(e)}`}
               </div>
             ))}
+            {showsSkyTemp(view) && result.sky_k?.[freqIndex] && (
+              <div style={{ fontWeight: 700 }} data-testid="sky-temp-readout">
+                Sky at {f} MHz: {(() => { const t = skyTempAt(result, freqIndex, hover.h.ra_deg, hover.h.dec_deg); return Number.isFinite(t) ? kelvin(t) : 'no data'; })()}
+              </div>
+            )}
             {showsNoise(view) && result.noise_maps?.[freqIndex] && (
               <div style={{ fontWeight: 700 }}>
                 Noise at {f} MHz: {Number.isFinite(result.noise_maps[freqIndex][hover.h.pixel]) ? formatViewValue(view, result.noise_maps[freqIndex][hover.h.pixel]) : 'not observed'}
@@ -341,7 +352,7 @@ export function SkyMap(props: SkyMapProps): JSX.Element {
             ref={barRef}
             data-testid="sky-map-colourbar"
             role="img"
-            aria-label={lastRaster?.scale ? `${colourBarTitle(view, lastRaster.scale)}: from ${formatViewValue(view, lastRaster.scale.min)} to ${formatViewValue(view, lastRaster.scale.max)}; grey = no exposure` : 'Colour bar'}
+            aria-label={lastRaster?.scale ? `${colourBarTitle(view, lastRaster.scale)}: from ${formatViewValue(view, lastRaster.scale.min)} to ${formatViewValue(view, lastRaster.scale.max)}${showsSkyTemp(view) ? '; grey = no data in the map' : '; grey = no exposure'}` : 'Colour bar'}
           />
         )}
         <div style={{ font: '12px/1.45 system-ui, sans-serif', color: '#222', minWidth: 0, flex: '1 1 260px' }}>

@@ -18,6 +18,7 @@ import { cachedCoveredMasks, outlineColour, outlineColourName, outlineNside, pai
 import { drawCentreMarker, drawGraticuleLabels, drawOverlays, fontPx, haloText, OVERLAY_STYLE, type Ctx2D } from './overlays';
 import { frameAxisNames, makeMapGeometry, type LookupCache, type MapGeometry, type SkyFrame } from './skyProjection';
 import { kelvin, kelvinUnit } from '../format';
+import { skyTempMap, skyTempScale, skyViewNside } from './skyTemp';
 
 // The parts of a sky-map figure shared by the on-screen map and the PNG export:
 // the colour raster, the overlays, the colour bar and the legend entries.
@@ -33,11 +34,16 @@ export interface SkyView {
   scheme?: SkySchemeName;
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
   beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
-  /** What the colours show: exposure (h, default) or radiometer noise (K, PlanResult.noise_maps). Ignored in compare/diff modes. */
+  /** What the colours show: exposure (h, default), radiometer noise (K, PlanResult.noise_maps) or the sky model's brightness (K, PlanResult.sky_k). Ignored in compare/diff modes. */
   quantity?: SkyQuantity;
 }
 
-export type SkyQuantity = 'exposure' | 'noise';
+export type SkyQuantity = 'exposure' | 'noise' | 'sky';
+
+/** True when the view colours the sky model's brightness temperature (issue 12). */
+export function showsSkyTemp(view: SkyView): boolean {
+  return view.quantity === 'sky' && !view.compare && !view.diff;
+}
 
 /** True when the view colours the noise map (not in comparison or difference modes). */
 export function showsNoise(view: SkyView): boolean {
@@ -88,6 +94,10 @@ export function noiseRange(map: Float32Array): { min: number; q: number; max: nu
 /** The colour bar options of a view (unit of the labels, the grey swatch's meaning). */
 export function colourBarOptions(result: PlanResult, view: SkyView, scale: ValueScale): { format: (v: number) => string; tick?: (v: number) => string; noneLabel?: string; topLabel?: string } {
   const format = (v: number) => formatViewValue(view, v);
+  if (showsSkyTemp(view)) {
+    const { factor } = kelvinUnit(scale.max);
+    return { format, tick: (v: number) => formatTick(v * factor), noneLabel: 'no data', topLabel: `max ${format(scale.max)}` };
+  }
   if (!showsNoise(view)) return { format };
   const { factor } = kelvinUnit(scale.max);
   const tick = (v: number) => formatTick(v * factor);
@@ -241,6 +251,18 @@ export function renderRaster(
     colourise(lookup, d, scale, lut, pixels);
     return { pixels, cols, rows, scale, lut, problem: null };
   }
+  if (showsSkyTemp(view)) {
+    const sky = skyTempMap(result, view.freqIndex);
+    const skyLookup = lookupFor(skyViewNside(result));
+    if (!sky) {
+      colourise(skyLookup, new Float32Array(0), { kind: 'linear', min: 0, max: 1 }, schemeLut(DEFAULT_SCHEME), pixels);
+      return { pixels, cols, rows, scale: null, lut: null, problem: 'this result has no sky model grid (computed by an older engine); recompute to get one' };
+    }
+    const scale = skyTempScale(sky);
+    const lut = schemeLut(view.scheme ?? DEFAULT_SCHEME);
+    colourise(skyLookup, sky, scale, lut, pixels);
+    return { pixels, cols, rows, scale, lut, problem: null };
+  }
   if (showsNoise(view)) {
     const noise = result.noise_maps?.[view.freqIndex];
     if (!noise || noise.length !== map.length) {
@@ -308,11 +330,13 @@ export function drawMapLayer(
 
 /** A value with the unit the view's colours are in ("h" or "K"), for readouts and the bar's top label. */
 export function formatViewValue(view: SkyView, v: number): string {
+  if (showsSkyTemp(view)) return kelvin(v);
   if (!showsNoise(view)) return formatHours(v);
   return kelvin(v);
 }
 
 export function colourBarTitle(view: SkyView, scale: ValueScale | null): string {
+  if (showsSkyTemp(view)) return `Sky brightness temperature (${kelvinUnit(scale?.max ?? 1).unit}, logarithmic)`;
   if (showsNoise(view)) {
     // the bar's ticks are in the prefixed unit of its top value (mK, µK), as the readouts are
     const unit = kelvinUnit(scale?.max ?? 1).unit;
