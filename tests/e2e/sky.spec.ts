@@ -85,7 +85,7 @@ test('"Map shows" sky temperature draws the sky model in kelvin with a K colour 
   await expect(page.locator(MAP)).toHaveAttribute('data-quantity', 'sky');
   const bar = page.getByTestId('sky-map-colourbar');
   await expect(bar).toHaveAttribute('data-unit', 'K');
-  await expect(bar).toHaveAttribute('data-title', /Sky brightness temperature \((K|kK|MK|GK), logarithmic\)/);
+  await expect(bar).toHaveAttribute('data-title', /Sky temperature \((K|MK|GK), log\)/);
   await expect(bar).toHaveAttribute('aria-label', /K/);
   expect(await mapHash(page)).not.toBe(before);
   // the readout gives the sky's temperature under the pointer

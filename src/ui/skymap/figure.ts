@@ -96,7 +96,7 @@ export function colourBarOptions(result: PlanResult, view: SkyView, scale: Value
   const format = (v: number) => formatViewValue(view, v);
   if (showsSkyTemp(view)) {
     const { factor } = kelvinUnit(scale.max);
-    return { format, tick: (v: number) => formatTick(v * factor), noneLabel: 'no data', topLabel: `max ${format(scale.max)}` };
+    return { format, tick: (v: number) => formatTick(v * factor), noneLabel: 'none', topLabel: `max ${format(scale.max)}` };
   }
   if (!showsNoise(view)) return { format };
   const { factor } = kelvinUnit(scale.max);
@@ -336,7 +336,7 @@ export function formatViewValue(view: SkyView, v: number): string {
 }
 
 export function colourBarTitle(view: SkyView, scale: ValueScale | null): string {
-  if (showsSkyTemp(view)) return `Sky brightness temperature (${kelvinUnit(scale?.max ?? 1).unit}, logarithmic)`;
+  if (showsSkyTemp(view)) return `Sky temperature (${kelvinUnit(scale?.max ?? 1).unit}, log)`;
   if (showsNoise(view)) {
     // the bar's ticks are in the prefixed unit of its top value (mK, µK), as the readouts are
     const unit = kelvinUnit(scale?.max ?? 1).unit;
