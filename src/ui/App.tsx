@@ -23,7 +23,7 @@ import { readRecent, rememberScenario, type RecentEntry } from './state/recent';
 import { RecentMenu } from './recent/RecentMenu';
 import { useEngine } from './state/useEngine';
 import { downloadText, fileStem } from './exports/download';
-import { PLANNING_NOTE, bodyLabel, latLabel, lonLabel } from './caption';
+import { PLANNING_NOTE, antennaShort, bodyLabel, latLabel, lonLabel } from './caption';
 import { useWidth } from './useWidth';
 import type { SkyQuantity } from './skymap/SkyMap';
 import { useSurvey } from './survey/useSurvey';
@@ -336,7 +336,7 @@ export function App() {
             Set the site (type it, or click the globe), the span and the telescope. Short runs recompute as you type;
             the downloads sit under the map.
           </p>
-          <ScenarioPanel draft={draft} issues={issues} onChange={patch}
+          <ScenarioPanel draft={draft} issues={issues} scenario={scenario} onChange={patch}
             sky={{ status: skyStatus, message: skyMsg, onFiles: (f) => void addSkyFiles(f) }} />
         </aside>
         <main className="main">
@@ -360,7 +360,7 @@ export function App() {
                     <span>{result.scenario.name || 'Untitled scenario'}</span>
                     <span className="sub">
                       {bodyLabel(result.scenario.site.body)} {latLabel(result.scenario.site.lat_deg)}, {lonLabel(result.scenario.site.lon_deg)} ·{' '}
-                      {result.scenario.span.start.slice(0, 10)} to {result.scenario.span.end.slice(0, 10)} · {result.scenario.telescope.aperture_m} m
+                      {result.scenario.span.start.slice(0, 10)} to {result.scenario.span.end.slice(0, 10)} · {antennaShort(result.scenario)}
                     </span>
                   </h2>
                   <ViewControls

@@ -68,6 +68,16 @@ export function scenarioCaption(s: Scenario, freqIndex: number, opts: { outlines
   return parts.join(' ');
 }
 
+/** The antenna in a few words for the result title: "400 m dish", "10 m dipole", "100 m × 12 m aperture", "pattern table". */
+export function antennaShort(s: Scenario): string {
+  const t = s.telescope, b = t.beam;
+  const feeds = t.feeds?.length ? `, ${t.feeds.length + 1} beams` : '';
+  const m = b.model === 'gaussian' || b.model === 'airy' ? `${t.aperture_m} m`
+    : b.model === 'elliptical_gaussian' ? `${b.length_m} m × ${b.width_m} m aperture`
+      : b.model === 'dipole' ? `${b.length_m} m dipole` : 'pattern table';
+  return m + feeds;
+}
+
 /** Short identification of a plan: name, site and dates. */
 export function planLabel(s: Scenario): string {
   return `${s.name || 'untitled'} (${bodyLabel(s.site.body)} ${latLabel(s.site.lat_deg)}, ${lonLabel(s.site.lon_deg)}, ${s.span.start.slice(0, 10)} to ${s.span.end.slice(0, 10)})`;

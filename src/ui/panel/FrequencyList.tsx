@@ -1,12 +1,15 @@
 import type { Draft, FreqRow, IssueIndex } from '../state/draft';
 import { freqRowMhz, mhzFromZ, newId, zText } from '../state/draft';
 import { fwhmRad, wavelengthM } from '../../core/beam';
+import { beamFiguresFor } from '../../core/antenna';
+import type { Scenario } from '../../core/types';
 import { sig, wavelength } from '../format';
 
 // The frequency list: each row takes a frequency in MHz or a 21-cm redshift
 // (the other is derived) and shows wavelength and FWHM for the current aperture.
 
-export function FrequencyList({ draft, issues, onChange }: { draft: Draft; issues: IssueIndex; onChange: (freqs: FreqRow[]) => void }) {
+export function FrequencyList({ draft, issues, onChange, scenario }: { draft: Draft; issues: IssueIndex; onChange: (freqs: FreqRow[]) => void; scenario?: Scenario | null }) {
+  const circular = draft.beamModel === 'gaussian' || draft.beamModel === 'airy';
   const ap = Number(draft.aperture);
   const k = Number(draft.fwhmFactor);
   const set = (i: number, row: FreqRow) => onChange(draft.freqs.map((r, j) => (j === i ? row : r)));
@@ -28,7 +31,10 @@ export function FrequencyList({ draft, issues, onChange }: { draft: Draft; issue
           {draft.freqs.map((r, i) => {
             const f = freqRowMhz(r);
             const ok = typeof f === 'number' && f > 0;
-            const fw = ok && ap > 0 ? (fwhmRad(f, ap, { model: draft.beamModel, fwhm_factor: Number.isFinite(k) ? k : 1.15 }) * 180) / Math.PI : NaN;
+            // other models: the geometric mean of the principal-plane widths, once the scenario is valid
+            const fw = !ok ? NaN
+              : circular ? (ap > 0 ? (fwhmRad(f, ap, { model: draft.beamModel, fwhm_factor: Number.isFinite(k) ? k : 1.15 }) * 180) / Math.PI : NaN)
+              : scenario && scenario.telescope.frequencies_mhz.includes(f) ? beamFiguresFor(scenario, f).fwhm_deg : NaN;
             const msgs = issues.get(`telescope.frequencies_mhz.${i}`);
             return (
               <tr key={r.id} className={msgs.length ? 'invalid' : undefined}>

@@ -1,4 +1,4 @@
-import type { BeamModel, BodyName } from '../../core/types';
+import type { BodyName, Scenario } from '../../core/types';
 import { parseUtcMs } from '../../core/time';
 import type { Draft, IssueIndex } from '../state/draft';
 import { SHOWN_FIELDS } from '../state/draft';
@@ -15,6 +15,7 @@ export interface SkyPanelProps {
   message: { text: string; error: boolean } | null;
   onFiles: (files: File[]) => void;
 }
+import { AntennaFields } from '../antenna/AntennaFields';
 
 // The scenario form. It edits the draft (text as typed); validation comes from
 // the scenario parser's FieldIssues, shown beside the field they name.
@@ -47,8 +48,10 @@ const LAT_HINT: Record<BodyName, string> = {
 
 const NSIDES = [8, 16, 32, 64, 128, 256, 512, 1024];
 
-export function ScenarioPanel({ draft, issues, onChange, sky }: {
+export function ScenarioPanel({ draft, issues, onChange, sky, scenario }: {
   draft: Draft;
+  /** the draft as a valid scenario, or null */
+  scenario?: Scenario | null;
   issues: IssueIndex;
   onChange: (patch: Partial<Draft>) => void;
   sky: SkyPanelProps;
@@ -109,31 +112,12 @@ export function ScenarioPanel({ draft, issues, onChange, sky }: {
         </Field>
       </fieldset>
 
+      <AntennaFields draft={draft} issues={issues} onChange={onChange} />
+
       <fieldset>
-        <legend>Telescope</legend>
-        <Field label="Aperture (m)" messages={issues.get('telescope.aperture_m')}>
-          {(p) => <input {...p} inputMode="decimal" value={draft.aperture} onChange={(e) => onChange({ aperture: e.target.value })} />}
-        </Field>
-        <div className="pair">
-          <Field label="Beam model" messages={issues.get('telescope.beam.model')}>
-            {(p) => (
-              <select {...p} value={draft.beamModel} onChange={(e) => onChange({ beamModel: e.target.value as BeamModel })}>
-                <option value="gaussian">Gaussian</option>
-                <option value="airy">Airy (uniform disc)</option>
-                {draft.antenna?.beam.model === 'elliptical_gaussian' && <option value="elliptical_gaussian">Elliptical Gaussian (from the loaded file)</option>}
-                {draft.antenna?.beam.model === 'dipole' && <option value="dipole">Dipole (from the loaded file)</option>}
-                {draft.antenna?.beam.model === 'pattern' && <option value="pattern">Pattern table (from the loaded file)</option>}
-              </select>
-            )}
-          </Field>
-          <Field label="FWHM factor k" messages={issues.get('telescope.beam.fwhm_factor')}
-            hint={draft.beamModel === 'airy' ? 'Airy: FWHM = 1.029 λ/D' : 'FWHM = k λ/D'}>
-            {(p) => <input {...p} inputMode="decimal" value={draft.fwhmFactor} disabled={draft.beamModel === 'airy'}
-              onChange={(e) => onChange({ fwhmFactor: e.target.value })} />}
-          </Field>
-        </div>
+        <legend>Band and receiver</legend>
         <div className="subhead" id="freq-head">Frequencies</div>
-        <FrequencyList draft={draft} issues={issues} onChange={(freqs) => onChange({ freqs })} />
+        <FrequencyList draft={draft} issues={issues} scenario={scenario} onChange={(freqs) => onChange({ freqs })} />
         <SensitivityFields draft={draft} issues={issues} onChange={onChange} />
       </fieldset>
 

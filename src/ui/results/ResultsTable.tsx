@@ -32,7 +32,10 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
             <th scope="col">Frequency</th>
             <th scope="col">Wavelength</th>
             <th scope="col">21-cm redshift z</th>
-            <th scope="col">FWHM</th>
+            <th scope="col" title="Half-power width (geometric mean of the two principal planes for a non-circular beam)">FWHM</th>
+            <th scope="col" title="Half-power widths in the two principal planes of the main beam, larger first">FWHM, principal planes</th>
+            <th scope="col" title="Integral of the free-space power pattern over the sphere">Beam solid angle</th>
+            <th scope="col" title="10 log10(4π / solid angle)">Directivity</th>
             <th scope="col" title={diffraction ? 'Usable hours at this frequency, with the hours the horizon mask would give as a perfect shield (no diffraction) beside them' : 'Usable hours at this frequency'}>
               Usable{diffraction ? ' (geometric shielding alone)' : ''}
             </th>
@@ -63,6 +66,10 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               data-sky-fraction={f.sky_fraction_covered}
               data-exposure-max={summaryHours(f.exposure_max_h)}
               data-noise-median={f.noise_median_k ?? ''}
+              data-fwhm-major={f.beam?.fwhm_major_deg ?? ''}
+              data-fwhm-minor={f.beam?.fwhm_minor_deg ?? ''}
+              data-solid-angle={f.beam?.solid_angle_sr ?? ''}
+              data-directivity={f.beam?.directivity_dbi ?? ''}
             >
               <th scope="row">
                 <button type="button" className="linklike" onClick={() => onSelect(i)} aria-pressed={i === selected}
@@ -73,6 +80,9 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               <td>{wavelength(f.wavelength_m)}</td>
               <td>{fixed(f.redshift_21cm, 1)}</td>
               <td>{sig(f.fwhm_deg, 3)}°</td>
+              <td data-testid={`beam-widths-${i}`}>{f.beam ? `${sig(f.beam.fwhm_major_deg, 3)}° × ${sig(f.beam.fwhm_minor_deg, 3)}°` : '—'}</td>
+              <td>{f.beam ? `${sig(f.beam.solid_angle_sr, 3)} sr` : '—'}</td>
+              <td>{f.beam ? `${fixed(f.beam.directivity_dbi, 2)} dBi` : '—'}</td>
               <td data-testid={`usable-cell-${i}`} data-usable={f.usable_hours ?? s.hours.usable} data-geometric={f.usable_hours_geometric ?? ''} className="nowrap">
                 {hours(f.usable_hours ?? s.hours.usable)} h
                 {diffraction && f.usable_hours_geometric !== undefined && <span className="muted"> ({hours(f.usable_hours_geometric)} h)</span>}

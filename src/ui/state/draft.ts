@@ -1,4 +1,4 @@
-import type { BeamModel, BodyName, FieldIssue, Scenario, SkyModelName } from '../../core/types';
+import type { BeamModel, BodyName, FieldIssue, PatternTable, Scenario, SkyModelName } from '../../core/types';
 import { HI_REST_MHZ } from '../../core/beam';
 import { formNumber } from '../../core/scenario';
 import { IONOSPHERE_TYPICAL_MHZ } from '../../core/shielding/plasma';
@@ -26,8 +26,8 @@ export interface Draft {
   step: string; // '' = automatic
   aperture: string;
   beamModel: BeamModel;
-  /** the antenna fields the form does not edit yet (model parameters, pointing, feeds, plan), kept as loaded so nothing is lost */
-  antenna?: Pick<Scenario['telescope'], 'beam' | 'pointing' | 'feeds' | 'pointing_plan'>;
+  /** the antenna section: every model's fields (kept while another model is chosen), pointing, feeds, plan */
+  ant: AntennaDraft;
   fwhmFactor: string;
   freqs: FreqRow[];
   sunOn: boolean;
@@ -65,6 +65,37 @@ export interface Draft {
   receiverK: string;
 }
 
+export interface FeedRow { id: number; x: string; y: string }
+export interface PlanRow { id: number; start: string; end: string; el: string; az: string }
+
+/** The antenna fields as typed. Empty pointing fields mean the default (the zenith) and are left out of the scenario. */
+export interface AntennaDraft {
+  ellLength: string;
+  ellWidth: string;
+  ellAxis: string;
+  dipLength: string;
+  /** dipole height over the ground (m); ignored while dipGround is false */
+  dipHeight: string;
+  dipGround: boolean;
+  dipAxis: string;
+  /** a pattern table as loaded (from a scenario file or a CSV), with where it came from */
+  table: PatternTable | null;
+  tableSource: string;
+  pointEl: string;
+  pointAz: string;
+  feeds: FeedRow[];
+  plan: PlanRow[];
+}
+
+export function emptyAntenna(): AntennaDraft {
+  return {
+    ellLength: '', ellWidth: '', ellAxis: '0',
+    dipLength: '', dipHeight: '', dipGround: true, dipAxis: '90',
+    table: null, tableSource: '',
+    pointEl: '', pointAz: '', feeds: [], plan: [],
+  };
+}
+
 let nextId = 1;
 export function newId(): number {
   return nextId++;
@@ -98,9 +129,7 @@ export function scenarioToDraft(s: Scenario): Draft {
     step: s.span.step_min === null ? '' : num(s.span.step_min),
     aperture: s.telescope.aperture_m === undefined ? '' : num(s.telescope.aperture_m),
     beamModel: s.telescope.beam.model,
-    ...(s.telescope.beam.model !== 'gaussian' && s.telescope.beam.model !== 'airy' || s.telescope.pointing || s.telescope.feeds || s.telescope.pointing_plan
-      ? { antenna: { beam: s.telescope.beam, pointing: s.telescope.pointing, feeds: s.telescope.feeds, pointing_plan: s.telescope.pointing_plan } }
-      : {}),
+    ant: antennaToDraft(s.telescope),
     fwhmFactor: num(s.telescope.beam.fwhm_factor),
     freqs: s.telescope.frequencies_mhz.map((f) => ({ id: newId(), mhz: num(f), z: zText(f), source: 'mhz' as const })),
     sunOn: s.constraints.sun_max_elev_deg !== null,
@@ -128,6 +157,55 @@ export function scenarioToDraft(s: Scenario): Draft {
     bandwidth: s.telescope.bandwidth_mhz === undefined ? '' : num(s.telescope.bandwidth_mhz),
     receiverK: s.telescope.receiver_temp_k === undefined ? '' : num(s.telescope.receiver_temp_k),
   };
+}
+
+function antennaToDraft(t: Scenario['telescope']): AntennaDraft {
+  const a = emptyAntenna();
+  const b = t.beam;
+  if (b.model === 'elliptical_gaussian') {
+    a.ellLength = num(b.length_m!);
+    a.ellWidth = num(b.width_m!);
+    a.ellAxis = num(b.axis_azimuth_deg ?? 0);
+  } else if (b.model === 'dipole') {
+    a.dipLength = num(b.length_m!);
+    a.dipGround = b.height_m !== null && b.height_m !== undefined;
+    a.dipHeight = a.dipGround ? num(b.height_m!) : '';
+    a.dipAxis = num(b.axis_azimuth_deg ?? 90);
+  } else if (b.model === 'pattern' && b.table) {
+    a.table = b.table;
+    a.tableSource = 'the scenario';
+  }
+  if (t.pointing) {
+    a.pointEl = num(t.pointing.elevation_deg);
+    a.pointAz = num(t.pointing.azimuth_deg);
+  }
+  a.feeds = (t.feeds ?? []).map((f) => ({ id: newId(), x: num(f.x_offset_deg), y: num(f.y_offset_deg) }));
+  a.plan = (t.pointing_plan ?? []).map((g) => ({ id: newId(), start: g.start, end: g.end, el: num(g.elevation_deg), az: num(g.azimuth_deg) }));
+  return a;
+}
+
+/** The `telescope.beam` object of the chosen model, from the typed fields. */
+function beamCandidate(d: Draft): Record<string, unknown> {
+  const a = d.ant;
+  const k = numOrText(d.fwhmFactor);
+  switch (d.beamModel) {
+    case 'elliptical_gaussian':
+      return { model: d.beamModel, fwhm_factor: k, length_m: numOrText(a.ellLength), width_m: numOrText(a.ellWidth), axis_azimuth_deg: numOrText(a.ellAxis) };
+    case 'dipole':
+      // k belongs to the aperture models: the dipole and the table leave it out (the parser's default)
+      return { model: d.beamModel, length_m: numOrText(a.dipLength), height_m: a.dipGround ? numOrText(a.dipHeight) : null, axis_azimuth_deg: numOrText(a.dipAxis) };
+    case 'pattern':
+      // no table yet: the parser's "table is required" message appears beside the loader
+      return { model: d.beamModel, ...(a.table ? { table: a.table } : {}) };
+    default:
+      return { model: d.beamModel, fwhm_factor: k };
+  }
+}
+
+function pointingCandidate(a: AntennaDraft): Record<string, unknown> | null {
+  const el = a.pointEl.trim(), az = a.pointAz.trim();
+  if (el === '' && az === '') return null;
+  return { ...(el === '' ? {} : { elevation_deg: numOrText(a.pointEl) }), ...(az === '' ? {} : { azimuth_deg: numOrText(a.pointAz) }) };
 }
 
 /** A typed number, or the raw text when it is not one (so the parser names the field and the value). */
@@ -168,14 +246,16 @@ export function draftToCandidate(d: Draft): unknown {
     site: { body: d.body, lat_deg: numOrText(d.lat), lon_deg: numOrText(d.lon) },
     span: { start: d.start.trim(), end: d.end.trim(), step_min: d.step.trim() === '' ? null : numOrText(d.step) },
     telescope: {
-      ...(d.aperture.trim() === '' && d.beamModel !== 'gaussian' && d.beamModel !== 'airy' ? {} : { aperture_m: numOrText(d.aperture) }),
+      // the aperture belongs to the circular models; the others leave it out (the typed text stays for switching back)
+      ...(d.beamModel !== 'gaussian' && d.beamModel !== 'airy' ? {} : { aperture_m: numOrText(d.aperture) }),
       frequencies_mhz: d.freqs.map(freqRowMhz),
-      beam: d.antenna && d.antenna.beam.model === d.beamModel
-        ? { ...d.antenna.beam, fwhm_factor: numOrText(d.fwhmFactor) }
-        : { model: d.beamModel, fwhm_factor: numOrText(d.fwhmFactor) },
-      ...(d.antenna?.pointing ? { pointing: d.antenna.pointing } : {}),
-      ...(d.antenna?.feeds ? { feeds: d.antenna.feeds } : {}),
-      ...(d.antenna?.pointing_plan ? { pointing_plan: d.antenna.pointing_plan } : {}),
+      beam: beamCandidate(d),
+      // a plan sets the boresight of every segment: the fixed pointing is left out while the plan has rows
+      ...(d.ant.plan.length === 0 && pointingCandidate(d.ant) ? { pointing: pointingCandidate(d.ant) } : {}),
+      ...(d.ant.feeds.length > 0 ? { feeds: d.ant.feeds.map((f) => ({ x_offset_deg: numOrText(f.x), y_offset_deg: numOrText(f.y) })) } : {}),
+      ...(d.ant.plan.length > 0
+        ? { pointing_plan: d.ant.plan.map((g) => ({ start: g.start.trim(), end: g.end.trim(), elevation_deg: numOrText(g.el), azimuth_deg: numOrText(g.az) })) }
+        : {}),
       ...((d.bandwidth ?? '').trim() === '' ? {} : { bandwidth_mhz: numOrText(d.bandwidth) }),
       ...((d.receiverK ?? '').trim() === '' ? {} : { receiver_temp_k: numOrText(d.receiverK) }),
     },
@@ -216,7 +296,7 @@ export class IssueIndex {
 /** Field paths the scenario panel shows next to an input. */
 export const SHOWN_FIELDS = [
   'name', 'site.body', 'site.lat_deg', 'site.lon_deg', 'span.start', 'span.end', 'span.step_min',
-  'telescope.aperture_m', 'telescope.beam.model', 'telescope.bandwidth_mhz', 'telescope.receiver_temp_k', 'telescope.beam.fwhm_factor', 'telescope.frequencies_mhz',
+  'telescope.aperture_m', 'telescope.beam', 'telescope.pointing', 'telescope.feeds', 'telescope.pointing_plan', 'telescope.beam.model', 'telescope.bandwidth_mhz', 'telescope.receiver_temp_k', 'telescope.beam.fwhm_factor', 'telescope.frequencies_mhz',
   'constraints.sun_max_elev_deg', 'constraints.earth_max_elev_deg', 'constraints.horizon_mask',
   'constraints.diffraction', 'constraints.ionosphere', 'constraints.sun_min_separation_deg',
   'sky',
