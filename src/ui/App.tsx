@@ -35,6 +35,10 @@ import { readHealpixFits, SkyMapError, SKY_MAP_LIMITS, type HealpixMap } from '.
 import { checkSkyMaps, type LoadedSkyMap } from '../core/sky/model';
 import { getSkyMap, isQuotaError, putSkyMap } from './state/skyMapStore';
 import { withMapRow, type SkyMapStatus } from './panel/SkyFields';
+import { BeamView } from './antenna/BeamView';
+import { skyBeamAt } from '../core/antenna/cuts';
+import { isPlainZenithDish } from '../core/antenna/pointing';
+import { vecToRaDecDeg } from '../core/frames';
 
 // The planner shell: scenario draft -> validated scenario -> worker run ->
 // result views. The last good result stays on screen whatever the draft holds.
@@ -232,8 +236,15 @@ export function App() {
       sunAz: t.sun_az_deg[si], sunEl: t.sun_elev_deg[si],
       earthAz: t.earth_az_deg ? t.earth_az_deg[si] : null, earthEl: t.earth_elev_deg ? t.earth_elev_deg[si] : null,
     };
-    return { sample, beamAt: { ra_deg: t.ra_deg[si], dec_deg: t.dec_deg[si], usable: result.usable[si] === 1 } };
-  }, [result, scrubOn, si]);
+    const usable = result.usable[si] === 1;
+    const s = result.scenario;
+    const f = s.telescope.frequencies_mhz[Math.min(freqIndex, s.telescope.frequencies_mhz.length - 1)];
+    // a circular dish at the zenith keeps its FWHM circle; any other antenna shows each feed's half-power outline
+    if (isPlainZenithDish(s)) return { sample, beamAt: { ra_deg: t.ra_deg[si], dec_deg: t.dec_deg[si], usable } };
+    const b = skyBeamAt(s, t, si, f);
+    const [ra, dec] = vecToRaDecDeg(b.boresights[0]);
+    return { sample, beamAt: { ra_deg: ra, dec_deg: dec, usable, outlines: b.outlines, boresights: b.boresights } };
+  }, [result, scrubOn, si, freqIndex]);
 
   // comparison: the pinned result is A, the current one B; a difference map needs the same frequencies and nside
   const diffOk = pinned !== null && result !== null && pinned !== result &&
@@ -424,6 +435,7 @@ export function App() {
                 <h2 id="results-head">Results</h2>
                 <ResultsTable result={result} selected={fi} onSelect={setFreqIndex} />
                 <NoiseNote result={result} freqIndex={fi} />
+                <BeamView scenario={result.scenario} selected={fi} />
                 <Timeline result={result} scrubMs={scrub ? scrub.sample.ms : null} markers={crossings} />
                 {usableDiffers(result) && <UsableByFrequency result={result} scrubMs={scrub ? scrub.sample.ms : null} />}
                 {result.scenario.constraints.diffraction && <AttenuationPlot result={result} index={scrubOn ? si : null} />}

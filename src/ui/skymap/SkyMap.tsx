@@ -30,7 +30,7 @@ import { kelvin } from '../format';
 export type { SkyFrame } from './skyProjection';
 export type { SkyScale, SkyQuantity } from './figure';
 export type { SkySchemeName } from './colour';
-import type { SkyScale } from './figure';
+import type { BeamMarker, SkyScale } from './figure';
 
 export interface SkyHover {
   ra_deg: number;
@@ -52,7 +52,7 @@ export interface SkyMapProps {
   flipLongitude: boolean;
   compare: boolean;
   onHover?: (h: SkyHover | null) => void;
-  beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
+  beamAt?: BeamMarker | null;
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
   /** Sequential colour map; default cividis (readable with colour-vision deficiencies). */
   scheme?: SkySchemeName;

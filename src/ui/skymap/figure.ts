@@ -33,7 +33,7 @@ export interface SkyView {
   compare: boolean;
   scheme?: SkySchemeName;
   diff?: { other: PlanResult; labelA: string; labelB: string } | null;
-  beamAt?: { ra_deg: number; dec_deg: number; usable: boolean } | null;
+  beamAt?: BeamMarker | null;
   /** What the colours show: exposure (h, default), radiometer noise (K, PlanResult.noise_maps) or the sky model's brightness (K, PlanResult.sky_k). Ignored in compare/diff modes. */
   quantity?: SkyQuantity;
 }
@@ -280,6 +280,21 @@ export function renderRaster(
   return { pixels, cols, rows, scale, lut, problem: null };
 }
 
+/**
+ * The beam at the scrubber's moment: centre (the main boresight) in J2000
+ * RA/Dec; for any antenna other than a circular dish at the zenith, every
+ * feed's half-power outline (J2000 unit vectors, x, y, z interleaved), drawn
+ * instead of the FWHM circle.
+ */
+export interface BeamMarker {
+  ra_deg: number;
+  dec_deg: number;
+  usable: boolean;
+  outlines?: Float64Array[];
+  /** every feed's boresight (J2000 unit vectors), main first */
+  boresights?: [number, number, number][];
+}
+
 export function beamRadiusDeg(result: PlanResult, freqIndex: number): number {
   const s = result.scenario;
   const f = s.telescope.frequencies_mhz[freqIndex];
@@ -306,7 +321,7 @@ export function overlayKey(g: MapGeometry, result: PlanResult, view: SkyView, u:
   const b = view.beamAt;
   return [
     g.width, g.height, g.flipLongitude, view.frame, m.galactic_band_deg, m.galactic_center_radius_deg, u, dpr,
-    b ? `${b.ra_deg},${b.dec_deg},${b.usable},${beamRadiusDeg(result, view.freqIndex)}` : '-',
+    b ? `${b.ra_deg},${b.dec_deg},${b.usable},${beamRadiusDeg(result, view.freqIndex)},${b.outlines ? b.outlines.map((o) => `${o.length}:${o[0]},${o[1]}`).join(';') : ''}` : '-',
   ].join('|');
 }
 
@@ -438,7 +453,7 @@ export function legendEntries(result: PlanResult, view: SkyView): LegendEntry[] 
     out.push({
       kind: 'beam',
       colour: view.beamAt.usable ? OVERLAY_STYLE.beamUsable : OVERLAY_STYLE.beamUnusable,
-      label: `Beam at the chosen time (FWHM circle)${view.beamAt.usable ? '' : ' — not usable then'}`,
+      label: `Beam at the chosen time (${view.beamAt.outlines ? `half-power outline${view.beamAt.outlines.length > 1 ? ` of each of ${view.beamAt.outlines.length} feeds` : ''}` : 'FWHM circle'})${view.beamAt.usable ? '' : ' — not usable then'}`,
       dashed: !view.beamAt.usable,
     });
   }

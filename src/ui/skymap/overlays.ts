@@ -150,7 +150,7 @@ export interface OverlayOptions {
   /** Scale of widths and fonts. */
   u: number;
   /** Beam marker (time scrubber): centre in J2000 RA/Dec, radius = FWHM/2. */
-  beam?: { ra_deg: number; dec_deg: number; radiusDeg: number; usable: boolean } | null;
+  beam?: { ra_deg: number; dec_deg: number; radiusDeg: number; usable: boolean; outlines?: Float64Array[]; boresights?: [number, number, number][] } | null;
   showGalactic?: boolean;
   showEcliptic?: boolean;
 }
@@ -207,7 +207,26 @@ export function drawOverlays(ctx: Ctx2D, g: MapGeometry, o: OverlayOptions): voi
     stroke(ctx, draw(s.ecliptic), st.halo, 3.6 * u);
     stroke(ctx, draw(s.ecliptic), st.ecliptic, 1.8 * u, [7 * u, 4 * u]);
   }
-  if (o.beam) {
+  if (o.beam?.outlines) {
+    // any antenna but a circular dish at the zenith: each feed's half-power outline as it sits on the sky
+    const col = o.beam.usable ? st.beamUsable : st.beamUnusable;
+    for (const ol of o.beam.outlines) {
+      const ring: [number, number][] = [];
+      for (let k = 0; k < ol.length; k += 3) ring.push(j2000ToFrameLonLat(o.frame, [ol[k], ol[k + 1], ol[k + 2]]));
+      if (ring.length) ring.push(ring[0]);
+      const line: GeoPermissibleObjects = { type: 'LineString', coordinates: ring };
+      stroke(ctx, draw(line), st.halo, 4 * u);
+      stroke(ctx, draw(line), col, 2 * u, o.beam.usable ? [] : [4 * u, 3 * u]);
+    }
+    for (const b of o.beam.boresights ?? []) {
+      const p = g.projection(j2000ToFrameLonLat(o.frame, b));
+      if (!p) continue;
+      ctx.beginPath();
+      ctx.arc(p[0], p[1], 2.5 * u, 0, 2 * Math.PI);
+      ctx.fillStyle = col;
+      ctx.fill();
+    }
+  } else if (o.beam) {
     const c = j2000ToFrameLonLat(o.frame, raDecDegToVec(o.beam.ra_deg, o.beam.dec_deg));
     const ring = geoCircle().center(c).radius(Math.max(o.beam.radiusDeg, 0.3)).precision(1)();
     const col = o.beam.usable ? st.beamUsable : st.beamUnusable;
