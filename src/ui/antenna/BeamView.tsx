@@ -13,6 +13,15 @@ import { useWidth } from '../useWidth';
 const FLOOR_DB = -30;
 const HALF_DB = 10 * Math.log10(0.5);
 
+/** Short plane names for the legend. */
+function planeShort(s: Scenario, cuts: PlaneCut[]): [string, string] {
+  const m = s.telescope.beam.model;
+  if (m === 'dipole') return ['E-plane', 'H-plane'];
+  if (m === 'elliptical_gaussian') return ['long side', 'short side'];
+  const az = (c: PlaneCut) => `azimuth ${sig(((c.azimuthDeg % 360) + 360) % 360, 4)}°`;
+  return [az(cuts[0]), az(cuts[1])];
+}
+
 function planeNames(s: Scenario, cuts: PlaneCut[]): [string, string] {
   const b = s.telescope.beam;
   const az = (c: PlaneCut) => `${sig(((c.azimuthDeg % 360) + 360) % 360, 4)}°`;
@@ -32,7 +41,7 @@ function Panel({ title, cuts, freqs, selected, width, testId }: {
   testId: string;
 }) {
   const W = Math.max(240, width), H = 210;
-  const m = { l: 40, r: 10, t: 8, b: 34 };
+  const m = { l: 40, r: 62, t: 8, b: 34 };
   const pw = W - m.l - m.r, ph = H - m.t - m.b;
   const x = (deg: number) => m.l + ((deg + 90) / 180) * pw;
   const y = (db: number) => m.t + (Math.max(FLOOR_DB, Math.min(0, db)) / FLOOR_DB) * ph;
@@ -58,7 +67,8 @@ function Panel({ title, cuts, freqs, selected, width, testId }: {
         <text x={m.l + pw / 2} y={H - 3} className="axis-label" textAnchor="middle">Angle from the boresight (°)</text>
         <text x={11} y={m.t + ph / 2} className="axis-label" textAnchor="middle" transform={`rotate(-90 11 ${m.t + ph / 2})`}>dB</text>
         <line x1={m.l} x2={m.l + pw} y1={y(HALF_DB)} y2={y(HALF_DB)} className="half-power" data-testid={`${testId}-half`} />
-        <text x={m.l + pw - 3} y={y(HALF_DB) - 3} className="half-label" textAnchor="end">half power (−3 dB)</text>
+        <text x={m.l + pw + 4} y={y(HALF_DB) + 4} className="half-label">−3 dB</text>
+        <text x={m.l + pw + 4} y={y(HALF_DB) + 16} className="half-label sub">half power</text>
         <g clipPath={`url(#${clipId})`}>
           {cuts.map((c, i) => {
             let d = '';
@@ -77,6 +87,7 @@ export function BeamView({ scenario, selected }: { scenario: Scenario; selected:
   const cuts = useMemo(() => freqs.map((f) => principalCuts(scenario, f)), [scenario, freqs]);
   const [ref, width] = useWidth<HTMLDivElement>(700);
   const names = planeNames(scenario, cuts[0]);
+  const short = planeShort(scenario, cuts[0]);
   const side = width >= 620;
   const pw = side ? Math.floor((width - 16) / 2) : width;
   return (
@@ -90,13 +101,14 @@ export function BeamView({ scenario, selected }: { scenario: Scenario; selected:
         {freqs.map((f, i) => (
           <li key={i}>
             <span className="swatch" style={{ background: outlineColour(i) }} aria-hidden="true" />
-            {sig(f, 6)} MHz: half-power width {sig(cuts[i][0].fwhmDeg, 3)}° and {sig(cuts[i][1].fwhmDeg, 3)}°
+            {sig(f, 6)} MHz: half-power width {sig(cuts[i][0].fwhmDeg, 3)}° ({short[0]}), {sig(cuts[i][1].fwhmDeg, 3)}° ({short[1]})
           </li>
         ))}
       </ul>
       <p className="table-note">
         Power pattern of the main beam in free space (no horizon), normalised to its maximum, in the antenna frame
-        (angle from the boresight; the planes' azimuths from y′ through x′). Below −30 dB the curves rest on the bottom edge.
+        (angle from the boresight; the planes' azimuths from y′ through x′); the dashed line is the half-power level (−3 dB).
+        Below −30 dB the curves rest on the bottom edge.
         Extra feeds have the same pattern about their own boresights. Planning estimates from the stated models.
       </p>
     </section>
