@@ -20,14 +20,14 @@ export const COMMANDS: Record<string, Command> = {
     usage: 'swathe survey SCENARIO.json --step-deg S --out DIR',
     run: async (argv, io) => (await import('./survey')).surveyCommand(argv, io),
   },
-  pattern: {
-    summary: 'read a pattern-table CSV and print the telescope.beam object of the pattern model',
-    usage: 'swathe pattern TABLE.csv',
-    run: async (argv, io) => (await import('./pattern')).patternCommand(argv, io),
-  },
   merge: {
     summary: 'join survey shards into the unsharded survey file',
     usage: 'swathe merge DIR_OR_FILES... --out FILE',
     run: async (argv, io) => (await import('./merge')).mergeCommand(argv, io),
+  },
+  pattern: {
+    summary: 'read a pattern-table CSV and print the telescope.beam object of the pattern model',
+    usage: 'swathe pattern TABLE.csv',
+    run: async (argv, io) => (await import('./pattern')).patternCommand(argv, io),
   },
 };

@@ -167,7 +167,7 @@ describe('help and dispatch', () => {
     expect(b.cap.out).toBe(PLAN_HELP);
     const c = io(tmpdir());
     expect(await runCli(['explode'], c.io)).toBe(2);
-    expect(c.cap.err).toBe('swathe: unknown command "explode" (commands: plan, survey, merge; see swathe --help)\n');
+    expect(c.cap.err).toBe('swathe: unknown command "explode" (commands: plan, survey, merge, pattern; see swathe --help)\n');
     const none = io(tmpdir());
     expect(await runCli([], none.io)).toBe(2);
     expect([none.cap.out, none.cap.err.startsWith('swathe ')]).toEqual(['', true]);
