@@ -275,7 +275,7 @@ export function App() {
       <header className="top">
         <div className="brand">
           <span className="wordmark">Swathe</span>
-          <span className="tagline">sky coverage of a fixed zenith-pointing telescope</span>
+          <span className="tagline">sky coverage of a fixed (drift-scan) telescope</span>
         </div>
         <div className="top-actions">
           <RecentMenu entries={recent} onOpen={(e) => replaceScenario(e.scenario, 'Opened a recent scenario. The one it replaced, "%s", is kept under Recent.')} />
@@ -452,7 +452,8 @@ export function App() {
             <p><strong>{PLANNING_NOTE}</strong></p>
             <p>
               Models: IAU rotation models via astronomy-engine; zenith track sampled over the span; HEALPix RING maps in J2000;
-              {' '}Gaussian (FWHM = k λ/D) or Airy beams; exposure is usable time weighted by beam power, in hours.
+              {' '}Gaussian (FWHM = k λ/D), Airy, elliptical Gaussian, thin-dipole (Balanis eq. 4-62a, image theory over a perfect ground) or tabulated beams;
+              {' '}exposure is usable time weighted by beam power, in hours.
             </p>
           </footer>
         </main>

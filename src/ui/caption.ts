@@ -1,5 +1,5 @@
 import type { Scenario } from '../core/types';
-import { beamWidthRad } from '../core/antenna';
+import { beamWidthRad, isPlainZenithDish } from '../core/antenna';
 
 function beamCaption(s: Scenario): string {
   const t = s.telescope, b = t.beam;
@@ -56,7 +56,7 @@ export function scenarioCaption(s: Scenario, freqIndex: number, opts: { outlines
     ? `half-power outlines: ${s.telescope.frequencies_mhz.map((g, i) => `${g} MHz ${outlineColourName(i)} (FWHM ${fwhmDegAt(s, g).toFixed(2)}°)`).join(', ')}`
     : f !== undefined ? `${f} MHz (FWHM ${fwhmDegAt(s, f).toFixed(2)}°)` : '';
   const parts = [
-    `Site: ${bodyLabel(s.site.body)} ${latLabel(s.site.lat_deg)}, ${lonLabel(s.site.lon_deg)}, zenith-pointing drift scan.`,
+    `Site: ${bodyLabel(s.site.body)} ${latLabel(s.site.lat_deg)}, ${lonLabel(s.site.lon_deg)}, ${isPlainZenithDish(s) ? 'zenith-pointing' : 'ground-fixed antenna,'} drift scan.`,
     `Span: ${s.span.start} to ${s.span.end} (UTC), step ${s.span.step_min === null ? 'automatic' : s.span.step_min + ' min'}.`,
     `${beam}; ${freqText}.`,
     `Usable time: ${elevLimit(s.constraints.sun_max_elev_deg, 'Sun')}; ${
