@@ -36,6 +36,7 @@ import { checkSkyMaps, type LoadedSkyMap } from '../core/sky/model';
 import { getSkyMap, isQuotaError, putSkyMap } from './state/skyMapStore';
 import { withMapRow, type SkyMapStatus } from './panel/SkyFields';
 import { BeamView } from './antenna/BeamView';
+import { antennaLabelsByPath } from './antenna/labels';
 import { skyBeamAt } from '../core/antenna/cuts';
 import { isPlainZenithDish } from '../core/antenna/pointing';
 import { vecToRaDecDeg } from '../core/frames';
@@ -89,8 +90,8 @@ export function App() {
   const skyIssues = useMemo(() => mapModelIssues(scenario, skyLoaded, skyStatus), [scenario, skyLoaded, skyStatus]);
 
   const issues = useMemo(
-    () => new IssueIndex(appIssues([...(parsed.ok ? [] : parsed.issues), ...(estimate?.problems ?? []), ...skyIssues])),
-    [parsed, estimate, skyIssues],
+    () => new IssueIndex(appIssues([...(parsed.ok ? [] : parsed.issues), ...(estimate?.problems ?? []), ...skyIssues], antennaLabelsByPath(draft.beamModel, draft.ant))),
+    [parsed, estimate, skyIssues, draft.beamModel, draft.ant],
   );
   const runnable = scenario !== null && estimate !== null && estimate.problems.length === 0 && skyIssues.length === 0;
   // site survey and noise map

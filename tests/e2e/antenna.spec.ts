@@ -155,7 +155,7 @@ test('a bad antenna value is named by its label with the range, and what was typ
 
   const height = page.getByLabel('Height over ground (m)');
   await height.fill('-2');
-  await expect(page.getByRole('alert').filter({ hasText: 'Height over ground (m) must be null (no ground plane) or a number of metres between 0 and 10000, got -2' })).toBeVisible();
+  await expect(page.getByRole('alert').filter({ hasText: '"Height over ground (m)" must be a number of metres between 0 and 10000 (or untick "Over a perfectly conducting ground"), got -2' })).toBeVisible();
   await expect(height).toHaveValue('-2');
   await expect(height).toHaveAttribute('aria-invalid', 'true');
   await expect(page.getByTestId('result-title')).toContainText('dipole'); // the last good result stays
@@ -163,7 +163,7 @@ test('a bad antenna value is named by its label with the range, and what was typ
   await page.getByRole('button', { name: 'Add feed' }).click();
   const x = page.getByLabel('Extra feed 1 x offset (°)');
   await x.fill('75');
-  await expect(page.getByRole('alert').filter({ hasText: 'Extra feed 1 x offset (°) must be between -60 and 60, got 75' })).toBeVisible();
+  await expect(page.getByRole('alert').filter({ hasText: '"Extra feed 1 x offset (°)" must be between -60 and 60, got 75' })).toBeVisible();
   await expect(x).toHaveValue('75');
 
   // a pattern table that does not load leaves the model's state alone and says why

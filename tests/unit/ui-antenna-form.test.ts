@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { parseScenario } from '../../src/core/scenario';
 import { draftToCandidate, scenarioToDraft, type Draft } from '../../src/ui/state/draft';
-import { antennaLabels, labelMessage } from '../../src/ui/antenna/labels';
+import { antennaLabelsByPath } from '../../src/ui/antenna/labels';
+import { appIssues } from '../../src/ui/state/fieldLabels';
 import type { Scenario } from '../../src/core/types';
 
 // The antenna section of the form: every model's fields, the boresight, the
@@ -79,20 +80,24 @@ describe('antenna form round trip', () => {
       const m = r.issues.find((i) => i.field === 'telescope.beam.height_m');
       expect(m).toBeDefined();
       // the range is the scenario's (0 to 10000 m) and the value is what was typed
-      expect(labelMessage(m!.message, antennaLabels('dipole', bad.ant))).toBe('Height over ground (m) must be null (no ground plane) or a number of metres between 0 and 10000, got -2');
+      expect(appIssues([m!], antennaLabelsByPath('dipole', bad.ant))[0].message)
+        .toBe('"Height over ground (m)" must be a number of metres between 0 and 10000 (or untick "Over a perfectly conducting ground"), got -2');
     }
   });
 });
 
-describe('labelMessage', () => {
+describe('antenna messages in the app\'s words', () => {
   const d = scenarioToDraft(scenario({ feeds: [{ x_offset_deg: 3, y_offset_deg: 0 }] }));
-  const L = antennaLabels('elliptical_gaussian', d.ant);
-  it('names the on-screen label in place of the file path, longest path first', () => {
-    expect(labelMessage('telescope.feeds[0].x_offset_deg must be between -60 and 60, got 70', L)).toBe('Extra feed 1 x offset (°) must be between -60 and 60, got 70');
-    expect(labelMessage('telescope.beam.width_m must not exceed telescope.beam.length_m (80 m; the long side is the length), got 90', L))
-      .toBe('Width (m) must not exceed Length (m) (80 m; the long side is the length), got 90');
+  const L = antennaLabelsByPath('elliptical_gaussian', d.ant);
+  const say = (field: string, message: string) => appIssues([{ field, message }], L)[0].message;
+  it('names the on-screen label in place of the file path, for rows and for fields the message mentions', () => {
+    expect(say('telescope.feeds[0].x_offset_deg', 'telescope.feeds[0].x_offset_deg must be between -60 and 60, got 70')).toBe('"Extra feed 1 x offset (°)" must be between -60 and 60, got 70');
+    expect(say('telescope.beam.width_m', 'telescope.beam.width_m must not exceed telescope.beam.length_m (80 m; the long side is the length), got 90'))
+      .toBe('"Width (m)" must not exceed "Length (m)" (80 m; the long side is the length), got 90');
   });
-  it('leaves a longer path it has no label for alone', () => {
-    expect(labelMessage('telescope.beam.table.gain_db[0] must be a list', L)).toBe('telescope.beam.table.gain_db[0] must be a list');
+  it('a dipole\'s length is named as the dipole\'s', () => {
+    const dd = scenarioToDraft(scenario({ beam: { model: 'dipole', length_m: 0.18, height_m: 0.09 } }));
+    expect(appIssues([{ field: 'telescope.beam.length_m', message: 'telescope.beam.length_m must be between 0.01 and 100000, got 0' }], antennaLabelsByPath('dipole', dd.ant))[0].message)
+      .toBe('"Dipole length (m)" must be between 0.01 and 100000, got 0');
   });
 });

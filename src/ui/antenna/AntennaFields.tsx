@@ -7,12 +7,12 @@ import type { AntennaDraft, Draft, IssueIndex } from '../state/draft';
 import { freqRowMhz, newId } from '../state/draft';
 import { Field } from '../panel/Field';
 import { isoUtc } from '../panel/ScenarioPanel';
-import { MODEL_LABELS, antennaLabels, labelMessage } from './labels';
+import { MODEL_LABELS, antennaLabels } from './labels';
 
 // The antenna section of the scenario form: the beam model and its fields,
 // the boresight, the extra feeds of a multi-beam feed and the pointing plan.
-// Every field keeps its text as typed; problems come from the scenario parser
-// and are rewritten to name the field's label (labels.ts).
+// Every field keeps its text as typed; problems come from the scenario parser,
+// rewritten by the app to name each field's label (labels.ts, state/fieldLabels.ts).
 
 const MODELS: BeamModel[] = ['gaussian', 'airy', 'elliptical_gaussian', 'dipole', 'pattern'];
 
@@ -48,8 +48,8 @@ export function AntennaFields({ draft, issues, onChange }: {
   const a = draft.ant;
   const model = draft.beamModel;
   const labels = antennaLabels(model, a);
-  const msgs = (path: string) => issues.get(path).map((m) => labelMessage(m, labels));
-  const own = (path: string, sub: string[]) => issues.get(path).filter((m) => !sub.some((s) => issues.get(s).includes(m))).map((m) => labelMessage(m, labels));
+  const msgs = (path: string) => issues.get(path);
+  const own = (path: string, sub: string[]) => issues.get(path).filter((m) => !sub.some((s) => issues.get(s).includes(m)));
   const set = (p: Partial<AntennaDraft>) => onChange({ ant: { ...a, ...p } });
   const circular = model === 'gaussian' || model === 'airy';
   const planOn = a.plan.length > 0;
@@ -192,8 +192,8 @@ function Feeds({ a, issues, labels, set }: {
   a: AntennaDraft; issues: IssueIndex; labels: Record<string, string>; set: (p: Partial<AntennaDraft>) => void;
 }) {
   const setRow = (i: number, k: 'x' | 'y', v: string) => set({ feeds: a.feeds.map((f, j) => (j === i ? { ...f, [k]: v } : f)) });
-  const rowMsgs = (i: number) => issues.get(`telescope.feeds.${i}`).map((m) => labelMessage(m, labels));
-  const listMsgs = issues.get('telescope.feeds').filter((m) => !a.feeds.some((_, i) => issues.get(`telescope.feeds.${i}`).includes(m))).map((m) => labelMessage(m, labels));
+  const rowMsgs = (i: number) => issues.get(`telescope.feeds.${i}`);
+  const listMsgs = issues.get('telescope.feeds').filter((m) => !a.feeds.some((_, i) => issues.get(`telescope.feeds.${i}`).includes(m)));
   return (
     <div className="feeds">
       <div className="subhead" id="ant-feeds-head">Extra feeds (multi-beam)</div>
@@ -257,8 +257,8 @@ function Plan({ draft, issues, labels, set }: {
 }) {
   const a = draft.ant;
   const setRow = (i: number, k: 'start' | 'end' | 'el' | 'az', v: string) => set({ plan: a.plan.map((g, j) => (j === i ? { ...g, [k]: v } : g)) });
-  const m = (i: number, k: string) => issues.get(`telescope.pointing_plan.${i}.${k}`).map((x) => labelMessage(x, labels));
-  const listMsgs = issues.get('telescope.pointing_plan').filter((x) => !a.plan.some((_, i) => issues.get(`telescope.pointing_plan.${i}`).includes(x))).map((x) => labelMessage(x, labels));
+  const m = (i: number, k: string) => issues.get(`telescope.pointing_plan.${i}.${k}`);
+  const listMsgs = issues.get('telescope.pointing_plan').filter((x) => !a.plan.some((_, i) => issues.get(`telescope.pointing_plan.${i}`).includes(x)));
   const cell = (i: number, k: 'start' | 'end' | 'el' | 'az', path: string, hint?: string) => (
     <Field label={labels[`telescope.pointing_plan[${i}].${path}`].replace(/^Segment \d+ /, '').replace(/^./, (c) => c.toUpperCase())}
       messages={m(i, path)} hint={hint} className="seg-field">
@@ -284,7 +284,7 @@ function Plan({ draft, issues, labels, set }: {
             {cell(i, 'az', 'azimuth_deg')}
           </div>
           {issues.get(`telescope.pointing_plan.${i}`).filter((x) => !['start', 'end', 'elevation_deg', 'azimuth_deg'].some((k) => issues.get(`telescope.pointing_plan.${i}.${k}`).includes(x)))
-            .map((x, k) => <p key={k} className="field-msg" role="alert">{labelMessage(x, labels)}</p>)}
+            .map((x, k) => <p key={k} className="field-msg" role="alert">{x}</p>)}
         </div>
       ))}
       <div className="row-buttons">

@@ -47,19 +47,9 @@ export function antennaLabels(model: BeamModel, a: AntennaDraft): Record<string,
   return L;
 }
 
-/**
- * A parser message with every field path it mentions replaced by that field's
- * label (longest paths first, so `telescope.feeds[0].x_offset_deg` is not cut
- * short by `telescope.feeds`); the range and the value stay as the parser wrote them.
- */
-export function labelMessage(message: string, labels: Record<string, string>): string {
-  const paths = Object.keys(labels).sort((p, q) => q.length - p.length);
-  let out = message;
-  for (const p of paths) {
-    if (!out.includes(p)) continue;
-    // a path followed by more path characters is a longer path: leave it
-    const re = new RegExp(p.replace(/[.[\]]/g, (c) => `\\${c}`) + '(?![\\w.\\[])', 'g');
-    out = out.replace(re, labels[p]);
-  }
+/** The same labels keyed by normalised path (`a.b.2.c`), as state/fieldLabels.ts looks them up. */
+export function antennaLabelsByPath(model: BeamModel, a: AntennaDraft): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const [k, v] of Object.entries(antennaLabels(model, a))) out[k.replace(/\[(\d+)\]/g, '.$1')] = v;
   return out;
 }

@@ -24,17 +24,18 @@ const LABELS: Record<string, string> = {
   'telescope.frequencies_mhz': 'Frequencies',
   'telescope.bandwidth_mhz': 'Bandwidth (MHz)',
   'telescope.receiver_temp_k': 'Receiver temperature (K)',
-  // antenna fields kept from a loaded file (the form shows the model, not its parameters)
-  'telescope.beam.length_m': 'Beam length (m, from the loaded file)',
-  'telescope.beam.width_m': 'Beam width (m, from the loaded file)',
-  'telescope.beam.height_m': 'Dipole height (m, from the loaded file)',
-  'telescope.beam.axis_azimuth_deg': 'Beam axis azimuth (°, from the loaded file)',
-  'telescope.beam.table': 'Beam pattern table (from the loaded file)',
-  'telescope.pointing': 'Pointing (from the loaded file)',
-  'telescope.pointing.elevation_deg': 'Pointing elevation (°, from the loaded file)',
-  'telescope.pointing.azimuth_deg': 'Pointing azimuth (°, from the loaded file)',
-  'telescope.feeds': 'Extra beams (from the loaded file)',
-  'telescope.pointing_plan': 'Pointing plan (from the loaded file)',
+  // antenna fields: the labels that depend on the model and the rows (ui/antenna/labels.ts) are passed
+  // to appIssues by the app; these are the fallbacks
+  'telescope.beam.length_m': 'Length (m)',
+  'telescope.beam.width_m': 'Width (m)',
+  'telescope.beam.height_m': 'Height over ground (m)',
+  'telescope.beam.axis_azimuth_deg': 'Axis azimuth (°)',
+  'telescope.beam.table': 'Pattern table',
+  'telescope.pointing': 'Boresight',
+  'telescope.pointing.elevation_deg': 'Boresight elevation (°)',
+  'telescope.pointing.azimuth_deg': 'Boresight azimuth (°)',
+  'telescope.feeds': 'Extra feeds',
+  'telescope.pointing_plan': 'Pointing plan',
   constraints: 'Usable time',
   'constraints.sun_max_elev_deg': 'Sun below (° elevation)',
   'constraints.earth_max_elev_deg': 'Earth below (° elevation)',
@@ -64,18 +65,22 @@ export function normPath(p: string): string {
   return p.replace(/\[(\d+)\]/g, '.$1').replace(/^\./, '');
 }
 
+/** Labels that depend on the draft (the antenna section's model and rows), by normalised path. */
+export type ExtraLabels = Readonly<Record<string, string>>;
+
 /** The on-screen label for a field path, or null when the form has none. */
-export function fieldLabel(path: string): string | null {
+export function fieldLabel(path: string, extra?: ExtraLabels): string | null {
   const p = normPath(path);
+  if (extra?.[p]) return extra[p];
   if (LABELS[p]) return LABELS[p];
   let m = /^telescope\.frequencies_mhz\.(\d+)$/.exec(p);
   if (m) return `Frequency ${Number(m[1]) + 1} (MHz)`;
   m = /^constraints\.horizon_mask\.(\d+)(?:\.(\d))?$/.exec(p);
   if (m) return `Mask point ${Number(m[1]) + 1}${m[2] !== undefined ? ` ${MASK_PART[Number(m[2])] ?? ''}`.trimEnd() : ''}`;
   m = /^telescope\.feeds\.(\d+)(?:\.(\w+))?$/.exec(p);
-  if (m) return `Extra beam ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_deg$/, '').replace(/_/g, ' ')} (°)` : ''} (from the loaded file)`;
+  if (m) return `Extra feed ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_offset_deg$/, ' offset').replace(/_/g, ' ')} (°)` : ''}`;
   m = /^telescope\.pointing_plan\.(\d+)(?:\.(\w+))?$/.exec(p);
-  if (m) return `Pointing plan segment ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_deg$/, '').replace(/_/g, ' ')}` : ''} (from the loaded file)`;
+  if (m) return `Segment ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_deg$/, '').replace(/_/g, ' ')}` : ''}`;
   if (p.startsWith('telescope.beam.table.')) return LABELS['telescope.beam.table'];
   m = /^sky\.maps\.(\d+)(?:\.(\w+))?$/.exec(p);
   if (m) return `Sky map ${Number(m[1]) + 1}${m[2] === 'frequency_mhz' ? ' frequency (MHz)' : m[2] === 'file' ? ' file' : ''}`;
@@ -86,20 +91,21 @@ export function fieldLabel(path: string): string | null {
 const PATH_IN_TEXT = /\b[a-z_]+(?:\.[a-z_]+|\[\d+\])+(?: \((?:azimuth|elevation|rim distance)\))?/g;
 
 /** A parser message in the app's words: every field path it names becomes that field's label. */
-export function appMessage(message: string): string {
+export function appMessage(message: string, extra?: ExtraLabels): string {
   return message
     .replace(PATH_IN_TEXT, (whole) => {
       const path = whole.replace(/ \(.*\)$/, '');
-      const label = fieldLabel(path);
+      const label = fieldLabel(path, extra);
       return label === null ? whole : `"${label}"`;
     })
     // file words for what the form shows as an empty box or an unticked row
     .replace(/must be null \(automatic\) or/g, 'must be empty (automatic) or')
     .replace(/must be null \(no constraint\) or/g, 'must be unticked (no constraint) or')
+    .replace(/must be null \(no ground plane\) or (.*?), got (.*)$/, 'must be $1 (or untick "Over a perfectly conducting ground"), got $2')
     .replace(/, got ""$/, ', got an empty box');
 }
 
 /** The parser's issues with their messages in the app's words (fields unchanged, so they still find their inputs). */
-export function appIssues(issues: readonly FieldIssue[]): FieldIssue[] {
-  return issues.map((i) => ({ field: i.field, message: appMessage(i.message) }));
+export function appIssues(issues: readonly FieldIssue[], extra?: ExtraLabels): FieldIssue[] {
+  return issues.map((i) => ({ field: i.field, message: appMessage(i.message, extra) }));
 }
