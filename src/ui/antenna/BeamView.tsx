@@ -13,6 +13,9 @@ import { useWidth } from '../useWidth';
 const FLOOR_DB = -30;
 const HALF_DB = 10 * Math.log10(0.5);
 
+/** A cut's half-power width; 360 is the API's word for a cut that never falls to half power. */
+const widthText = (w: number) => (w >= 360 ? 'none (never below half power)' : `${sig(w, 3)}°`);
+
 /** Short plane names for the legend. */
 function planeShort(s: Scenario, cuts: PlaneCut[]): [string, string] {
   const m = s.telescope.beam.model;
@@ -50,7 +53,7 @@ function Panel({ title, cuts, freqs, selected, width, testId }: {
     <figure className="beam-panel" data-testid={testId}>
       <figcaption>{title}</figcaption>
       <svg width={W} height={H} viewBox={`0 0 ${W} ${H}`} role="img"
-        aria-label={`${title}: power in dB against the angle from the boresight, ${freqs.map((f, i) => `${sig(f, 6)} MHz half-power width ${sig(cuts[i].fwhmDeg, 3)}°`).join(', ')}`}>
+        aria-label={`${title}: power in dB against the angle from the boresight, ${freqs.map((f, i) => `${sig(f, 6)} MHz half-power width ${widthText(cuts[i].fwhmDeg)}`).join(', ')}`}>
         <defs><clipPath id={clipId}><rect x={m.l} y={m.t} width={pw} height={ph} /></clipPath></defs>
         {[0, -10, -20, -30].map((d) => (
           <g key={d}>
@@ -101,7 +104,7 @@ export function BeamView({ scenario, selected }: { scenario: Scenario; selected:
         {freqs.map((f, i) => (
           <li key={i}>
             <span className="swatch" style={{ background: outlineColour(i) }} aria-hidden="true" />
-            {sig(f, 6)} MHz: half-power width {sig(cuts[i][0].fwhmDeg, 3)}° ({short[0]}), {sig(cuts[i][1].fwhmDeg, 3)}° ({short[1]})
+            {sig(f, 6)} MHz: half-power width {widthText(cuts[i][0].fwhmDeg)} ({short[0]}), {widthText(cuts[i][1].fwhmDeg)} ({short[1]})
           </li>
         ))}
       </ul>
