@@ -7,6 +7,9 @@ import { skyLabel } from '../panel/skyLabels';
 
 // One row per frequency, straight from PlanResult.summary (the same figures as summary.json).
 
+/** A principal-plane width; 360 means the cut never falls to half power (a dipole with no ground plane). */
+const widthText = (w: number) => (w >= 360 ? 'none' : `${sig(w, 3)}°`);
+
 export function ResultsTable({ result, selected, onSelect }: { result: PlanResult; selected: number; onSelect: (i: number) => void }) {
   const s = result.summary;
   const capId = useId();
@@ -32,10 +35,8 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
             <th scope="col">Frequency</th>
             <th scope="col">Wavelength</th>
             <th scope="col">21-cm redshift z</th>
-            <th scope="col" title="Half-power width (geometric mean of the two principal planes for a non-circular beam)">FWHM</th>
-            <th scope="col" title="Half-power widths in the two principal planes of the main beam, larger first">FWHM, principal planes</th>
-            <th scope="col" title="Integral of the free-space power pattern over the sphere">Beam solid angle</th>
-            <th scope="col" title="10 log10(4π / solid angle)">Directivity</th>
+            <th scope="col" title="Half-power widths of the main beam in its two principal planes, larger first (one value when they are equal)">FWHM</th>
+            <th scope="col" title="Beam solid angle (integral of the free-space power pattern over the sphere) and directivity 10 log10(4π / solid angle)">Solid angle, directivity</th>
             <th scope="col" title={diffraction ? 'Usable hours at this frequency, with the hours the horizon mask would give as a perfect shield (no diffraction) beside them' : 'Usable hours at this frequency'}>
               Usable{diffraction ? ' (geometric shielding alone)' : ''}
             </th>
@@ -79,10 +80,13 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               </th>
               <td>{wavelength(f.wavelength_m)}</td>
               <td>{fixed(f.redshift_21cm, 1)}</td>
-              <td>{sig(f.fwhm_deg, 3)}°</td>
-              <td data-testid={`beam-widths-${i}`}>{f.beam ? `${sig(f.beam.fwhm_major_deg, 3)}° × ${sig(f.beam.fwhm_minor_deg, 3)}°` : '—'}</td>
-              <td>{f.beam ? `${sig(f.beam.solid_angle_sr, 3)} sr` : '—'}</td>
-              <td>{f.beam ? `${fixed(f.beam.directivity_dbi, 2)} dBi` : '—'}</td>
+              <td data-testid={`beam-widths-${i}`}
+                title={f.beam && f.beam.fwhm_major_deg !== f.beam.fwhm_minor_deg ? `geometric mean ${sig(f.fwhm_deg, 3)}°` : undefined}>
+                {f.beam && sig(f.beam.fwhm_major_deg, 3) !== sig(f.beam.fwhm_minor_deg, 3)
+                  ? `${widthText(f.beam.fwhm_major_deg)} × ${widthText(f.beam.fwhm_minor_deg)}`
+                  : `${sig(f.fwhm_deg, 3)}°`}
+              </td>
+              <td>{f.beam ? `${sig(f.beam.solid_angle_sr, 3)} sr, ${fixed(f.beam.directivity_dbi, 2)} dBi` : '—'}</td>
               <td data-testid={`usable-cell-${i}`} data-usable={f.usable_hours ?? s.hours.usable} data-geometric={f.usable_hours_geometric ?? ''} className="nowrap">
                 {hours(f.usable_hours ?? s.hours.usable)} h
                 {diffraction && f.usable_hours_geometric !== undefined && <span className="muted"> ({hours(f.usable_hours_geometric)} h)</span>}
