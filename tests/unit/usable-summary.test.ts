@@ -105,6 +105,9 @@ describe('summaries', () => {
     expect(h2.sun_down).toBe(2.0); // elev < 2
     expect(h2.earth_down).toBe(2.0); // 0 deg when the constraint is null
     expect(h2.usable).toBe(2.0);
+    // a non-zero Earth limit is the threshold: elevations -5, -5, 2, -5, -5 against 3 and -6
+    expect(hoursSummary(tr, usableMask(tr, C(0, 3)), C(0, 3)).earth_down).toBe(2.5);
+    expect(hoursSummary(tr, usableMask(tr, C(0, -6)), C(0, -6)).earth_down).toBe(0);
     const te = synthetic('earth', rows, 0.5);
     expect(hoursSummary(te, usableMask(te, C(0, null)), C(0, null)).earth_down).toBeNull();
     expect(() => hoursSummary(tr, new Uint8Array(2), c)).toThrow(/entries/);
@@ -115,6 +118,8 @@ describe('summaries', () => {
     expect(z.dec_min_deg).toBe(Math.min(...decs));
     expect(z.dec_max_deg).toBe(Math.max(...decs));
     expect(z.ecl_lat_max_deg).toBe(Math.max(...tr.ecl_lat_deg));
+    expect(z.ecl_lat_min_deg).toBe(Math.min(...tr.ecl_lat_deg));
+    expect(z.ecl_lat_min_deg).toBeLessThan(z.ecl_lat_max_deg);
   });
   it('galactic dwell: |b| < band and distance to the centre < radius, usable time only', () => {
     const u = Uint8Array.from([1, 1, 1, 1, 1]);
