@@ -9,8 +9,8 @@
 // mean is a smooth function F(zenith, psi); it is computed on a grid (zenith
 // on rings of colatitude with nodes regular in right ascension, psi in equal
 // bins), each cell once, only when a sample first needs it, and interpolated
-// per sample (linear in each of the three angles). A beam symmetric about the
-// zenith needs one psi bin. Cells read the sky through a regular resampling
+// per sample (linear in each of the three angles; cubic in the two zenith
+// angles when the beam is symmetric about the zenith and needs one psi bin). Cells read the sky through a regular resampling
 // (skySampler); the direct per-sample sum (`direct`) reads the map itself.
 //
 // Each cell is a quadrature over the beam: points on rings around every feed's
@@ -54,6 +54,8 @@ export function stepWidthRad(beam: AntennaBeam): number {
 
 /** Quadrature spacing per narrowest beam width. */
 export const QUAD_PER_WIDTH = 6;
+/** Zenith grid spacing per width for a beam symmetric about the zenith (cubic interpolation). */
+export const GRID_PER_WIDTH_CUBIC = 4;
 /** Sky resampling nodes per map pixel (skySampler). */
 export const SAMPLER_PER_PIXEL = 4;
 /** Zenith grid spacing per max(narrowest beam width, sky pixel). */
@@ -222,10 +224,12 @@ export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFre
   const skyRes = Math.sqrt((4 * Math.PI) / nside2npix(sky.nside));
   // finer than the map's pixel where the beam is narrow enough to see the difference
   const sampler = skySampler(sky, Math.min(skyRes / 2, Math.max(skyRes / SAMPLER_PER_PIXEL, narrow / 8)));
-  const zStep0 = Math.max(narrow, skyRes) / GRID_PER_WIDTH;
+  const symmetric = symmetricAboutZenith(beam, opts.maskFree);
+  // cubic interpolation (symmetric beams) keeps the same accuracy on a coarser grid
+  const zStep0 = Math.max(narrow, skyRes) / (symmetric ? GRID_PER_WIDTH_CUBIC : GRID_PER_WIDTH);
   const nRows = Math.max(4, Math.ceil(Math.PI / zStep0));
   const dTheta = Math.PI / nRows;
-  const nPsi = symmetricAboutZenith(beam, opts.maskFree)
+  const nPsi = symmetric
     ? 1
     : Math.min(720, Math.max(8, Math.ceil(TWO_PI / (dTheta / Math.max(0.05, Math.sin(Math.min(Math.PI / 2, quad.maxZenithRad)))))));
   const dPsi = TWO_PI / nPsi;
@@ -277,7 +281,54 @@ export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFre
   // consecutive samples mostly fall in the same grid block: its 8 corner values are kept
   let kRow = -1, kCa = -1, kCb = -1, kJ = -1;
   let a00 = 0, a01 = 0, a10 = 0, a11 = 0, b00 = 0, b01 = 0, b10 = 0, b11 = 0;
+  // a beam with one turn bin (circular, at the zenith): cubic (Catmull-Rom) in colatitude and right
+  // ascension over 4 x 4 nodes, so the grid error falls as the step^4
+  const cr = (t: number, out: Float64Array): void => {
+    const t2 = t * t, t3 = t2 * t;
+    out[0] = 0.5 * (-t3 + 2 * t2 - t); out[1] = 0.5 * (3 * t3 - 5 * t2 + 2);
+    out[2] = 0.5 * (-3 * t3 + 4 * t2 + t); out[3] = 0.5 * (t3 - t2);
+  };
+  const wr = new Float64Array(4), wc = new Float64Array(4);
+  const rowVals = new Float64Array(4);
+  let cKey0 = -1, cKey1 = -1, cKey2 = -1, cKey3 = -1, cKeyR = -1;
+  const blk = new Float64Array(16);
+  const onRowCubic = (row: number, phi: number, slot: number): number => {
+    const nr = rowN[row];
+    const q = (phi * nr) / TWO_PI;
+    let c = Math.floor(q);
+    const f = q - c;
+    if (c >= nr) c -= nr;
+    const key = row * 1048576 + c;
+    const k = slot === 0 ? cKey0 : slot === 1 ? cKey1 : slot === 2 ? cKey2 : cKey3;
+    if (k !== key) {
+      for (let m = -1; m <= 2; m++) {
+        let cc = c + m;
+        if (cc < 0) cc += nr; else if (cc >= nr) cc -= nr;
+        blk[4 * slot + m + 1] = cell(row, cc, 0);
+      }
+      if (slot === 0) cKey0 = key; else if (slot === 1) cKey1 = key; else if (slot === 2) cKey2 = key; else cKey3 = key;
+    }
+    cr(f, wc);
+    return wc[0] * blk[4 * slot] + wc[1] * blk[4 * slot + 1] + wc[2] * blk[4 * slot + 2] + wc[3] * blk[4 * slot + 3];
+  };
+  const atAnglesCubic = (theta: number, phi: number): number => {
+    const tq = theta / dTheta - 0.5;
+    let r0 = Math.floor(tq);
+    const ft = tq - r0;
+    if (r0 < 1 || r0 > nRows - 3) {
+      // next to a pole: linear between the two nearest rows (clamped)
+      const rA = Math.max(0, Math.min(nRows - 1, r0)), rB = Math.max(0, Math.min(nRows - 1, r0 + 1));
+      const t = rA === rB ? 0 : Math.max(0, Math.min(1, ft));
+      cKeyR = -1; cKey0 = cKey1 = cKey2 = cKey3 = -1;
+      return (1 - t) * onRowCubic(rA, phi, 1) + t * onRowCubic(rB, phi, 2);
+    }
+    if (r0 !== cKeyR) { cKeyR = r0; cKey0 = cKey1 = cKey2 = cKey3 = -1; }
+    for (let m = 0; m < 4; m++) rowVals[m] = onRowCubic(r0 - 1 + m, phi, m);
+    cr(ft, wr);
+    return wr[0] * rowVals[0] + wr[1] * rowVals[1] + wr[2] * rowVals[2] + wr[3] * rowVals[3];
+  };
   const atAngles = (theta: number, phi: number, psi: number): number => {
+    if (nPsi === 1) return atAnglesCubic(theta, phi);
     let j0 = 0, j1 = 0, fj = 0;
     if (nPsi > 1) {
       const q = psi / dPsi;
