@@ -275,10 +275,9 @@ function Plan({ draft, issues, labels, set }: {
             <span>Segment {i + 1}</span>
             <button type="button" className="icon" aria-label={`Remove segment ${i + 1}`} onClick={() => set({ plan: removeSegment(a.plan, i) })}>×</button>
           </div>
-          <div className="pair">
-            {cell(i, 'start', 'start')}
-            {cell(i, 'end', 'end')}
-          </div>
+          {/* a full UTC time needs the whole width of the side panel */}
+          {cell(i, 'start', 'start')}
+          {cell(i, 'end', 'end')}
           <div className="pair">
             {cell(i, 'el', 'elevation_deg')}
             {cell(i, 'az', 'azimuth_deg')}
