@@ -9,6 +9,7 @@ import { ResultsTable } from './results/ResultsTable';
 import { Timeline } from './results/Timeline';
 import { UsableByFrequency, usableDiffers } from './results/UsableByFrequency';
 import { AttenuationPlot } from './results/AttenuationPlot';
+import { AntennaTempCharts } from './results/AntennaTempCharts';
 import { ExportBar } from './exports/ExportBar';
 import { GlobePane, type SiteSample } from './GlobePane';
 import { TimeScrubber } from './scrub/TimeScrubber';
@@ -438,6 +439,7 @@ export function App() {
                 <NoiseNote result={result} freqIndex={fi} />
                 <BeamView scenario={result.scenario} selected={fi} />
                 <Timeline result={result} scrubMs={scrub ? scrub.sample.ms : null} markers={crossings} />
+                {result.t_ant && result.t_ant.series[fi] && <AntennaTempCharts result={result} freqIndex={fi} scrubMs={scrub ? scrub.sample.ms : null} />}
                 {usableDiffers(result) && <UsableByFrequency result={result} scrubMs={scrub ? scrub.sample.ms : null} />}
                 {result.scenario.constraints.diffraction && <AttenuationPlot result={result} index={scrubOn ? si : null} />}
               </section>

@@ -97,3 +97,41 @@ test('"Map shows" sky temperature draws the sky model in kelvin with a K colour 
   const png = readFileSync(await dl.path());
   expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]); // PNG signature (ISO/IEC 15948)
 });
+
+test('antenna_temp.csv and depth_area.csv from the app equal the CLI files; the timeline and the RA fold show the same samples', async ({ page }) => {
+  const dir = mkdtempSync(join(tmpdir(), 'swathe-e2e-sky-'));
+  writeFileSync(join(dir, 'scenario.json'), JSON.stringify(SHORT));
+  execFileSync(process.execPath, ['bin/swathe.mjs', 'plan', join(dir, 'scenario.json'), '--out', join(dir, 'out')], { stdio: 'pipe' });
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  const files: Record<string, string> = {};
+  for (const [button, file] of [['Download antenna temperature CSV', 'antenna_temp.csv'], ['Download depth-area CSV', 'depth_area.csv'], ['Download track CSV', 'track.csv']]) {
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: button, exact: true }).click()]);
+    files[file] = readFileSync(await dl.path(), 'utf8');
+    if (file !== 'track.csv') expect(files[file], file).toBe(readFileSync(join(dir, 'out', file), 'utf8'));
+  }
+  await expect(page.getByTestId('antenna-temp-timeline')).toBeVisible();
+  // the fold, recomputed here from the two CSVs: median per 1-hour bin of zenith RA over usable samples
+  const rows = (s: string) => s.trim().split('\n').slice(1).map((l) => l.split(','));
+  const tAnt = rows(files['antenna_temp.csv']);
+  const track = rows(files['track.csv']);
+  expect(tAnt.length).toBe(track.length);
+  const bins: number[][] = Array.from({ length: 24 }, () => []);
+  track.forEach((r, i) => {
+    if (tAnt[i][1] !== '1') return;
+    bins[Math.floor(Number(r[1]) / 15) % 24].push(Number(tAnt[i][2])); // column 2: the first frequency (8 MHz, selected)
+  });
+  let checked = 0;
+  for (let k = 0; k < 24; k++) {
+    const dot = page.getByTestId(`ra-bin-${k}`);
+    if (bins[k].length === 0) { await expect(dot).toHaveCount(0); continue; }
+    const v = bins[k].sort((a, b) => a - b);
+    const m = v.length >> 1;
+    const median = v.length % 2 ? v[m] : (v[m - 1] + v[m]) / 2;
+    expect(Number(await dot.getAttribute('data-n')), `bin ${k} count`).toBe(v.length);
+    // the CSV rounds to its printed digits: agree to 1e-5 relative
+    expect(Math.abs(Number(await dot.getAttribute('data-median')) / median - 1), `bin ${k} median`).toBeLessThan(1e-5);
+    checked++;
+  }
+  expect(checked).toBeGreaterThan(3);
+});
