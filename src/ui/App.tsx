@@ -10,6 +10,7 @@ import { Timeline } from './results/Timeline';
 import { UsableByFrequency, usableDiffers } from './results/UsableByFrequency';
 import { AttenuationPlot } from './results/AttenuationPlot';
 import { AntennaTempCharts } from './results/AntennaTempCharts';
+import { DepthAreaPlot } from './results/DepthAreaPlot';
 import { ExportBar } from './exports/ExportBar';
 import { GlobePane, type SiteSample } from './GlobePane';
 import { TimeScrubber } from './scrub/TimeScrubber';
@@ -440,6 +441,7 @@ export function App() {
                 <BeamView scenario={result.scenario} selected={fi} />
                 <Timeline result={result} scrubMs={scrub ? scrub.sample.ms : null} markers={crossings} />
                 {result.t_ant && result.t_ant.series[fi] && <AntennaTempCharts result={result} freqIndex={fi} scrubMs={scrub ? scrub.sample.ms : null} />}
+                {result.noise_maps && <DepthAreaPlot result={result} />}
                 {usableDiffers(result) && <UsableByFrequency result={result} scrubMs={scrub ? scrub.sample.ms : null} />}
                 {result.scenario.constraints.diffraction && <AttenuationPlot result={result} index={scrubOn ? si : null} />}
               </section>

@@ -134,4 +134,11 @@ test('antenna_temp.csv and depth_area.csv from the app equal the CLI files; the 
     checked++;
   }
   expect(checked).toBeGreaterThan(3);
+  // the depth-area plot draws one point per level with a positive area, as depth_area.csv lists them
+  const da = rows(files['depth_area.csv']);
+  for (let k = 0; k < SHORT.telescope.frequencies_mhz.length; k++) {
+    const positive = da.filter((r) => Number(r[k + 1]) > 0).length;
+    expect(positive).toBeGreaterThan(10);
+    await expect(page.getByTestId(`depth-area-line-${k}`)).toHaveAttribute('data-points', String(positive));
+  }
 });
