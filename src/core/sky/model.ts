@@ -56,6 +56,9 @@ export interface LoadedSkyMap {
 
 export const DEFAULT_SKY: SkySpec = { model: 'galaxy' };
 
+/** The galaxy model is integrated at frequencies this many per decade apart and interpolated between them. */
+export const GALAXY_NODES_PER_DECADE = 20;
+
 const IDENTITY = Float64Array.from([1, 0, 0, 0, 1, 0, 0, 0, 1]);
 
 function rotationFromJ2000(cs: SkyCoordsys): Float64Array {
@@ -149,17 +152,31 @@ export function skyModelFor(spec: SkySpec | undefined, maps: LoadedSkyMap[] = []
         // eslint-disable-next-line require-yield
         *prepare(f) { return this.at(f); },
       };
-    case 'galaxy':
+    case 'galaxy': {
+      // the model's maps at nodes 1/GALAXY_NODES_PER_DECADE apart in log frequency, and per pixel
+      // a power law between the two around f: a new frequency costs no new line-of-sight integration
+      const lo = (f: number) => Math.floor(Math.log10(f) * GALAXY_NODES_PER_DECADE + 1e-9);
+      const node = (n: number) => Math.pow(10, n / GALAXY_NODES_PER_DECADE);
+      const combine = (f: number, a: Float32Array, b: Float32Array, fa: number, fb: number): SkyGrid => {
+        const out = new Float32Array(a.length);
+        const x = Math.log(f / fa) / Math.log(fb / fa);
+        for (let p = 0; p < a.length; p++) out[p] = a[p] * Math.pow(b[p] / a[p], x);
+        return skyGrid(f, GALAXY_NSIDE, 'G', out);
+      };
       return {
         spec: s, label: 'galaxy: analytic synchrotron disks with free-free absorption (NE2001 thick disk), ARCADE 2 background and CMB',
-        at: (f) => cached(f, () => skyGrid(f, GALAXY_NSIDE, 'G', drain(galaxyMapGalStage(f)))),
+        at(f) { return drain(this.prepare(f)); },
         *prepare(f) {
           const hit = cache.get(f);
           if (hit) return hit;
-          const values = yield* galaxyMapGalStage(f);
-          return cached(f, () => skyGrid(f, GALAXY_NSIDE, 'G', values));
+          const n = lo(f), fa = node(n), fb = node(n + 1);
+          const a = yield* galaxyMapGalStage(fa);
+          if (Math.abs(f / fa - 1) < 1e-12) return cached(f, () => skyGrid(f, GALAXY_NSIDE, 'G', a));
+          const b = yield* galaxyMapGalStage(fb);
+          return cached(f, () => combine(f, a, b, fa, fb));
         },
       };
+    }
     case 'map': {
       checkSkyMaps(s, maps);
       const names = maps.map((m) => `${m.file} (${m.frequency_mhz} MHz)`).join(', ');
