@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Scenario } from '../../src/core/types';
 import { SHORT, urlFor, guardHosts, waitForMap, mapHash, MAP } from './helpers';
+import { PY } from '../reference/pythonRef';
 
 // The sky section (issue 12): the sky model chosen in the form reaches the
 // engine, the antenna temperature in the table equals the CLI's summary.json
@@ -141,4 +142,34 @@ test('antenna_temp.csv and depth_area.csv from the app equal the CLI files; the 
     expect(positive).toBeGreaterThan(10);
     await expect(page.getByTestId(`depth-area-line-${k}`)).toHaveAttribute('data-points', String(positive));
   }
+});
+
+test('a healpy-written map picked in the Sky section computes, and its T_ant equals the CLI summary.json with the same file', async ({ page }) => {
+  const dir = mkdtempSync(join(tmpdir(), 'swathe-e2e-skymap-'));
+  const fits = join(dir, 'invented408.fits');
+  // an invented galactic sky at 408 MHz, written by healpy (an outside writer): 20 K + 80 K toward the plane
+  execFileSync(PY, ['-c', [
+    'import healpy as hp, numpy as np, sys',
+    'n=16; th,ph=hp.pix2ang(n, np.arange(hp.nside2npix(n)))',
+    'm=20+80*np.exp(-((np.pi/2-th)/0.2)**2)',
+    "hp.write_map(sys.argv[1], m, coord='G', column_units='K', overwrite=True)",
+  ].join('\n'), fits], { stdio: 'pipe' });
+  const s: Scenario = { ...SHORT, sky: { model: 'map', maps: [{ file: 'invented408.fits', frequency_mhz: 408 }], spectral_index: -2.5 } };
+  writeFileSync(join(dir, 'scenario.json'), JSON.stringify(s));
+  execFileSync(process.execPath, ['bin/swathe.mjs', 'plan', join(dir, 'scenario.json'), '--out', join(dir, 'out')], { stdio: 'pipe' });
+  const cli = JSON.parse(readFileSync(join(dir, 'out', 'summary.json'), 'utf8'));
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  await page.getByLabel('Sky model').selectOption('map');
+  await page.getByLabel('Sky map FITS file').setInputFiles({ name: 'invented408.fits', mimeType: 'application/fits', buffer: readFileSync(fits) });
+  await expect(page.getByTestId('sky-file-msg')).toContainText('Loaded invented408.fits');
+  await page.getByLabel('Map 1 frequency (MHz)').fill('408');
+  await page.getByLabel('Spectral index β').fill('-2.5');
+  await expect.poll(async () => Number(await page.getByTestId('tant-cell-0').getAttribute('data-median')), { timeout: 60_000 }).toBe(cli.frequencies[0].t_ant_median_k);
+  await waitForMap(page);
+  const u = await tantCells(page, 2);
+  cli.frequencies.forEach((f: { t_ant_median_k: number; t_ant_max_k: number }, i: number) => {
+    expect(u[i].median).toBe(f.t_ant_median_k);
+    expect(u[i].max).toBe(f.t_ant_max_k);
+  });
 });
