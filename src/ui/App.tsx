@@ -381,7 +381,7 @@ export function App() {
                     freqs={result.scenario.telescope.frequencies_mhz}
                     freqIndex={fi} onFreq={setFreqIndex}
                     frame={frame} onFrame={setFrame}
-                    scale={scale} onScale={setScale}
+                    scale={scale} onScale={setScale} scaleFixedLog={quantity === 'sky' && !compare && !diffOn}
                     flip={flip} onFlip={setFlip}
                     compare={compare} onCompare={setCompare}
                   />

@@ -8,6 +8,8 @@ export function ViewControls(p: {
   freqIndex: number; onFreq: (i: number) => void;
   frame: SkyFrame; onFrame: (f: SkyFrame) => void;
   scale: SkyScale; onScale: (s: SkyScale) => void;
+  /** the sky-temperature view is always logarithmic: the select is shown fixed */
+  scaleFixedLog?: boolean;
   flip: boolean; onFlip: (v: boolean) => void;
   compare: boolean; onCompare: (v: boolean) => void;
 }) {
@@ -31,7 +33,9 @@ export function ViewControls(p: {
       </span>
       <span className="ctl">
       <label htmlFor="view-scale">Colour scale</label>
-      <select id="view-scale" value={p.scale} onChange={(e) => p.onScale(e.target.value as SkyScale)}>
+      <select id="view-scale" value={p.scaleFixedLog ? 'log' : p.scale} disabled={p.scaleFixedLog}
+        title={p.scaleFixedLog ? 'The sky temperature is always shown on a logarithmic scale (it spans a factor of ten or more)' : undefined}
+        onChange={(e) => p.onScale(e.target.value as SkyScale)}>
         <option value="linear">Linear</option>
         <option value="log">Logarithmic</option>
       </select>

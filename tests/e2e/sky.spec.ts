@@ -84,6 +84,8 @@ test('"Map shows" sky temperature draws the sky model in kelvin with a K colour 
   const before = await mapHash(page);
   await page.getByLabel('Map shows').selectOption('sky');
   await expect(page.locator(MAP)).toHaveAttribute('data-quantity', 'sky');
+  await expect(page.getByLabel('Colour scale')).toBeDisabled();
+  await expect(page.getByLabel('Colour scale')).toHaveValue('log');
   const bar = page.getByTestId('sky-map-colourbar');
   await expect(bar).toHaveAttribute('data-unit', 'K');
   await expect(bar).toHaveAttribute('data-title', /Sky temperature \((K|MK|GK), log\)/);
