@@ -50,7 +50,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
             <th scope="col" title="Median over the covered sky of the radiometer noise σ_T (model stated under the table)">Noise</th>
             {hasTAnt && (
               <th scope="col" title={`Antenna temperature over usable time: the sky model's brightness averaged over the beam (${skyName})`}>
-                Antenna temp. median (min–max)
+                Antenna temp.<br />median (range)
               </th>
             )}
           </tr>
@@ -96,7 +96,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               <td>{hours(f.usable_hours_beam_near_center)} h</td>
               <td data-testid={`noise-cell-${i}`}>{f.noise_median_k !== undefined && Number.isFinite(f.noise_median_k) ? kelvin(f.noise_median_k, 4) : '—'}</td>
               {hasTAnt && (
-                <td data-testid={`tant-cell-${i}`} className="nowrap" data-median={f.t_ant_median_k ?? ''} data-min={f.t_ant_min_k ?? ''} data-max={f.t_ant_max_k ?? ''}>
+                <td data-testid={`tant-cell-${i}`} data-median={f.t_ant_median_k ?? ''} data-min={f.t_ant_min_k ?? ''} data-max={f.t_ant_max_k ?? ''}>
                   {f.t_ant_median_k !== undefined && Number.isFinite(f.t_ant_median_k)
                     ? <>{kelvin(f.t_ant_median_k, 3)}<br /><span className="muted sub">({kelvin(f.t_ant_min_k!, 3)} – {kelvin(f.t_ant_max_k!, 3)})</span></>
                     : '—'}
