@@ -342,7 +342,8 @@ function spinChunk(
   const wr = new Float64Array(4), wc = new Float64Array(4);
   const { vals, idx } = scratch;
   let m = 0, sum = 0;
-  const lo = rowTh(1), hi = rowTh(rows - 3);
+  // only the support: nothing beyond the feeds' cutoffs or the sky that never rises above the horizon
+  const lo = thMin, hi = thMax;
   for (let p = 0; p < npix; p++) {
     const t = th[p];
     if (t < lo || t > hi) continue;
