@@ -159,10 +159,17 @@ export function* spinPhasesStage(track: Track, frames: HorizonFrames, any: (i: n
   return { chunks, phi, dphi };
 }
 
-/** Usable hours of the picked samples of a chunk, binned by phi into M bins (bin b spans [b, b+1) x 2 pi / M). */
-function fillBins(h: Float64Array, ph: SpinPhases, c: SpinChunk, pick: (i: number) => boolean, weight: Float64Array): number {
+/**
+ * Usable hours of the picked samples of a chunk, binned by phi into M bins
+ * (bin b spans [b, b+1) x 2 pi / M); lo[b], hi[b]: the part of the bin the
+ * usable turns reached (fractions of the bin; lo > hi when none).
+ */
+function fillBins(h: Float64Array, lo: Float64Array, hi: Float64Array, ph: SpinPhases, c: SpinChunk, pick: (i: number) => boolean, weight: Float64Array): number {
   const M = h.length;
   h.fill(0);
+  lo.fill(1);
+  hi.fill(0);
+  const reach = (b: number, a: number, e: number) => { if (a < lo[b]) lo[b] = a; if (e > hi[b]) hi[b] = e; };
   const inv = M / TWO_PI;
   let total = 0;
   for (let i = c.start; i < c.end; i++) {
@@ -176,12 +183,13 @@ function fillBins(h: Float64Array, ph: SpinPhases, c: SpinChunk, pick: (i: numbe
     if (u < 0) u += M;
     if (u >= M) u = 0; // -1e-17 + M rounds to M
     let b = Math.floor(u);
-    if (du < 1e-9) { h[b] += w; continue; }
+    if (du < 1e-9) { h[b] += w; reach(b, u - b, u - b); continue; }
     const dens = w / du;
     let rest = du;
     while (rest > 0) {
       const take = Math.min(b + 1 - u, rest);
       h[b] += dens * take;
+      reach(b, u - b, u - b + take);
       rest -= take;
       u = b + 1;
       b++;
@@ -249,7 +257,7 @@ function discSpan(th: number, thc: number, psic: number, rho: number): [number, 
 
 /** One beam on one chunk: adds its exposure to res.map, its covered pixels to res.covered, its band hours. */
 function spinChunk(
-  job: SpinJob, res: SpinResult, c: SpinChunk, h: Float64Array, dth: number, hours: number, nside: number,
+  job: SpinJob, res: SpinResult, c: SpinChunk, h: Float64Array, occLo: Float64Array, occHi: Float64Array, dth: number, hours: number, nside: number,
   th: Float64Array, ph: Float64Array, band: { sinBand: number; cosRadius: number }, scratch: { vals: Float64Array; idx: Int32Array },
 ): void {
   const beam = job.beam;
@@ -314,8 +322,15 @@ function spinChunk(
   const occ: number[] = [];
   for (let b = 0; b < M; b++) if (h[b] > 0) occ.push(b);
   const dense = occ.length > M / 4;
-  // G = A (*) h along each row; Cm = max over occupied bins (A >= 0.1 only)
+  // G = A (*) h along each row. Cm = the largest power seen: over each occupied
+  // bin, the part of it the turns reached (A linear between columns), so a
+  // span that ends inside a bin covers no more and no less than it reached.
   const G = new Float64Array(rows * M), Cm = new Float64Array(rows * M);
+  const row = new Float64Array(M);
+  const aLin = (k: number, x: number): number => { // A at column k + x, |x| <= 1/2
+    if (x >= 0) return (1 - x) * row[k] + x * row[(k + 1) & (M - 1)];
+    return (1 + x) * row[k] - x * row[(k - 1) & (M - 1)];
+  };
   for (let r = 0; r < rows; r++) {
     const base = r * M;
     for (let e = rowStart[r]; e < rowStart[r + 1]; e++) {
@@ -328,13 +343,25 @@ function spinChunk(
       } else {
         for (let q = 0; q < occ.length; q++) { const b = occ[q]; G[base + ((k + b) & (M - 1))] += a * h[b]; }
       }
-      if (a >= 0.1) {
+    }
+    // the max: G's column j (at phi' = (j + 1/2) cells) sees A at (j - b) + 1/2 - s for the reached s in [lo, hi]
+    let any = false;
+    for (let e = rowStart[r]; e < rowStart[r + 1]; e++) { row[K[e]] = A[e]; if (A[e] >= 0.1) any = true; }
+    if (any) {
+      for (let e = rowStart[r]; e < rowStart[r + 1]; e++) {
+        const k = K[e];
+        if (A[e] < 0.05 && row[(k + 1) & (M - 1)] < 0.05 && row[(k - 1) & (M - 1)] < 0.05) continue;
         for (let q = 0; q < occ.length; q++) {
-          const j = base + ((k + occ[q]) & (M - 1));
-          if (a > Cm[j]) Cm[j] = a;
+          const b = occ[q], l = occLo[b], u = occHi[b];
+          if (l > u) continue;
+          let v = Math.max(aLin(k, 0.5 - u), aLin(k, 0.5 - l));
+          if (l <= 0.5 && u >= 0.5 && row[k] > v) v = row[k];
+          const j = base + ((k + b) & (M - 1));
+          if (v > Cm[j]) Cm[j] = v;
         }
       }
     }
+    for (let e = rowStart[r]; e < rowStart[r + 1]; e++) row[K[e]] = 0;
   }
 
   // read the grid at the pixels
@@ -352,20 +379,22 @@ function spinChunk(
     let v = ph[p] / dpsi - 0.5;
     if (v < 0) v += M;
     const ji = Math.floor(v), fv = v - ji;
-    // covered: bilinear on the max grid
-    const j0 = ji & (M - 1), j1 = (ji + 1) & (M - 1);
-    const b0 = ri * M, b1 = b0 + M;
-    const cm = (1 - fu) * ((1 - fv) * Cm[b0 + j0] + fv * Cm[b0 + j1]) + fu * ((1 - fv) * Cm[b1 + j0] + fv * Cm[b1 + j1]);
-    if (cm >= 0.5) res.covered[p] = 1;
     catmullRom(fu, wr);
     catmullRom(fv, wc);
-    let val = 0;
+    let val = 0, cm = 0;
     for (let a = 0; a < 4; a++) {
       const rb = (ri - 1 + a) * M;
-      let rowv = 0;
-      for (let b = 0; b < 4; b++) rowv += wc[b] * G[rb + ((ji - 1 + b) & (M - 1))];
+      let rowv = 0, rowc = 0;
+      for (let b = 0; b < 4; b++) {
+        const j = rb + ((ji - 1 + b) & (M - 1));
+        rowv += wc[b] * G[j];
+        rowc += wc[b] * Cm[j];
+      }
       val += wr[a] * rowv;
+      cm += wr[a] * rowc;
     }
+    // covered: the largest power the pixel centre saw, interpolated like the exposure
+    if (cm >= 0.5) res.covered[p] = 1;
     if (val > 0) { vals[m] = val; idx[m] = p; m++; sum += val; }
   }
   const pixSr = nside2pixareaSr(nside);
@@ -452,20 +481,21 @@ export function* spinCoverageStage(
   const th = new Float64Array(npix), lon = new Float64Array(npix);
   const band = { sinBand: Math.sin(bandDeg * DEG), cosRadius: Math.cos(radiusDeg * DEG) };
   const scratch = { vals: new Float64Array(npix), idx: new Int32Array(npix) };
-  const hs = new Map<number, Float64Array>();
+  const hs = new Map<number, Float64Array[]>();
   const total = ph.chunks.length * jobs.length;
   let done = 0;
   for (const c of ph.chunks) {
     let coords = false;
     for (let q = 0; q < jobs.length; q++) {
       const { dth, M } = spinGrid(jobs[q].beam, c);
-      let h = hs.get(M);
-      if (!h) { h = new Float64Array(M); hs.set(M, h); }
-      const hours = fillBins(h, ph, c, jobs[q].pick, track.weight_h);
+      let bufs = hs.get(M);
+      if (!bufs) { bufs = [new Float64Array(M), new Float64Array(M), new Float64Array(M)]; hs.set(M, bufs); }
+      const [h, lo, hi] = bufs;
+      const hours = fillBins(h, lo, hi, ph, c, jobs[q].pick, track.weight_h);
       results[q].hours += hours;
       if (hours > 0) {
         if (!coords) { pixelCoords(nside, c.C, th, lon); coords = true; }
-        spinChunk(jobs[q], results[q], c, h, dth, hours, nside, th, lon, band, scratch);
+        spinChunk(jobs[q], results[q], c, h, lo, hi, dth, hours, nside, th, lon, band, scratch);
       }
       yield 0.3 + (0.7 * ++done) / total;
     }
