@@ -5,6 +5,7 @@ import { runPlan } from '../../src/engine/runPlan';
 import { parseScenario } from '../../src/core/scenario';
 import { feedPattern, horizonFrames, sampleSegments, segmentsOf } from '../../src/core/antenna';
 import type { BodyName, Scenario } from '../../src/core/types';
+import { ringCentre } from '../fixtures/independent/healpixRing';
 
 // Property (issue 11 item 7): for random antennas (all five models, sizes,
 // pointings, multi-beam feeds, pointing plans, a flat horizon mask) at random
@@ -184,30 +185,3 @@ describe('antenna exposure conservation on random antennas and sites (fast-check
     );
   }, 600_000);
 });
-
-/** RING pixel centre written out from the HEALPix paper (Gorski et al. 2005, eqs. 4-9), independent of src/core/healpix. */
-function ringCentre(nside: number, p: number): [number, number, number] {
-  const npix = 12 * nside * nside, ncap = 2 * nside * (nside - 1);
-  let z: number, phi: number;
-  if (p < ncap) {
-    const i = Math.floor((1 + Math.sqrt(1 + 2 * p)) / 2);
-    const j = p + 1 - 2 * i * (i - 1);
-    z = 1 - (i * i) / (3 * nside * nside);
-    phi = (Math.PI / (2 * i)) * (j - 0.5);
-  } else if (p < npix - ncap) {
-    const pp = p - ncap;
-    const i = Math.floor(pp / (4 * nside)) + nside;
-    const j = (pp % (4 * nside)) + 1;
-    const sh = (i - nside + 1) % 2;
-    z = 4 / 3 - (2 * i) / (3 * nside);
-    phi = (Math.PI / (2 * nside)) * (j - sh / 2);
-  } else {
-    const pp = npix - p;
-    const i = Math.floor((1 + Math.sqrt(2 * pp - 1)) / 2);
-    const j = 4 * i + 1 - (pp - 2 * i * (i - 1));
-    z = -1 + (i * i) / (3 * nside * nside);
-    phi = (Math.PI / (2 * i)) * (j - 0.5);
-  }
-  const st = Math.sqrt(Math.max(0, 1 - z * z));
-  return [st * Math.cos(phi), st * Math.sin(phi), z];
-}
