@@ -64,5 +64,5 @@ describe('a pattern table of the built-in dipole', () => {
       // covered sky (B >= 0.5) within 1% of the dipole's
       expect(Math.abs(fine.summary.frequencies[k].sky_fraction_covered / dip.summary.frequencies[k].sky_fraction_covered - 1)).toBeLessThan(0.01);
     });
-  }, 120_000);
+  }, 600_000);
 });
