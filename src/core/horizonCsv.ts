@@ -16,7 +16,8 @@ export const HORIZON_CSV_MAX_BYTES = 1_000_000;
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
-function splitCells(line: string): string[] {
+/** The cells of one CSV line: split on semicolons, else commas, else runs of white space (shared by the pattern-table CSV). */
+export function splitCells(line: string): string[] {
   if (line.includes(';')) return line.split(';').map((c) => c.trim());
   if (line.includes(',')) return line.split(',').map((c) => c.trim());
   return line.trim().split(/\s+/);

@@ -10,6 +10,7 @@
 // model; the app and `swathe pattern` read a CSV through this one function.
 
 import type { FieldIssue, PatternTable } from '../types';
+import { splitCells } from '../horizonCsv';
 import { MAX_ISSUES, SCENARIO_LIMITS, describeValue } from '../scenario';
 
 export type PatternCsvResult = { ok: true; table: PatternTable } | { ok: false; issues: FieldIssue[] };
@@ -20,12 +21,6 @@ export const PATTERN_CSV_MAX_BYTES = 20_000_000;
 export const PATTERN_CSV_COLUMNS = ['frequency_mhz', 'zenith_deg', 'azimuth_deg', 'gain_db'] as const;
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-
-function splitCells(line: string): string[] {
-  if (line.includes(';')) return line.split(';').map((c) => c.trim());
-  if (line.includes(',')) return line.split(',').map((c) => c.trim());
-  return line.trim().split(/\s+/);
-}
 
 const fmt = (v: number) => String(v);
 
