@@ -22,6 +22,7 @@ import { appIssues } from './state/fieldLabels';
 import { IssueIndex, draftToCandidate, scenarioToDraft, type Draft } from './state/draft';
 import { browserStore, loadStartup, saveScenario, shareLink } from './state/persist';
 import { readRecent, rememberScenario, type RecentEntry } from './state/recent';
+import { memoryOf, readMemory, withMemory, writeMemory } from './state/modelMemory';
 import { RecentMenu } from './recent/RecentMenu';
 import { useEngine } from './state/useEngine';
 import { downloadText, fileStem } from './exports/download';
@@ -55,7 +56,8 @@ const DEBOUNCE_MS = 350;
 
 export function App() {
   const startup = useMemo(() => loadStartup(), []);
-  const [draft, setDraft] = useState<Draft>(() => scenarioToDraft(startup.scenario));
+  // the fields of the beam models not in use come back from the last visit (a scenario carries only its model's)
+  const [draft, setDraft] = useState<Draft>(() => withMemory(scenarioToDraft(startup.scenario), readMemory(browserStore())));
   const [notices, setNotices] = useState<string[]>(startup.notice ? [startup.notice] : []);
   // a whole-scenario replacement (link, import, recent) keeps the one replaced: one click back, and the recent list
   const [undo, setUndo] = useState<{ text: string; previous: Scenario } | null>(() => startup.replaced
@@ -195,7 +197,7 @@ export function App() {
       else setNotices((p) => [...p, 'The replaced scenario could not be added to Recent (storage full or disabled); use "Go back" or export it.']);
       setUndo({ text: undoText.replace('%s', prev.name || 'Untitled scenario'), previous: prev });
     }
-    setDraft(scenarioToDraft(next));
+    setDraft((d) => withMemory(scenarioToDraft(next), memoryOf(d)));
     setFreqIndex(0);
     start(next);
   };
@@ -220,6 +222,14 @@ export function App() {
   }, [key, auto]);
 
   const patch = useCallback((p: Partial<Draft>) => setDraft((d) => ({ ...d, ...p })), []);
+
+  // every model's typed fields, kept in the browser so a reload gives back what another model had
+  // eslint-disable-next-line react-hooks/exhaustive-deps
+  const memory = useMemo(() => memoryOf(draft), [draft.aperture, draft.fwhmFactor, draft.ant]);
+  useEffect(() => {
+    const t = setTimeout(() => writeMemory(browserStore(), memory), DEBOUNCE_MS);
+    return () => clearTimeout(t);
+  }, [memory]);
 
   const nFreq = result ? result.maps.length : 0;
   const fi = Math.min(freqIndex, Math.max(0, nFreq - 1));

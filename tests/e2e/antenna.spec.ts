@@ -176,3 +176,30 @@ test('a bad antenna value is named by its label with the range, and what was typ
   await page.getByLabel('Beam model').selectOption('dipole');
   await expect(page.getByLabel('Height over ground (m)')).toHaveValue('-2');
 });
+
+test('switching the beam model and back gives back what was typed, also after a reload', async ({ page }) => {
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  await page.getByLabel('Aperture (m)').fill('77');
+  await page.getByLabel('FWHM factor k').fill('1.3');
+  await page.getByLabel('Beam model').selectOption('elliptical_gaussian');
+  await page.getByLabel('Length (m)').fill('120');
+  await page.getByLabel('Width (m)').fill('14.5');
+  await page.getByLabel('Beam model').selectOption('dipole');
+  await page.getByLabel('Dipole length (m)').fill('9');
+  await page.getByLabel('Height over ground (m)').fill('4');
+  await expect(page.getByTestId('result-title')).toContainText('9 m dipole', { timeout: 60_000 });
+  // the dipole scenario as saved carries no aperture (it does not use one)
+  const saved = JSON.parse(readFileSync(await download(page, 'Export scenario JSON'), 'utf8'));
+  expect(saved.telescope.aperture_m).toBeUndefined();
+  await page.reload();
+  await waitForMap(page);
+  await expect(page.getByLabel('Dipole length (m)')).toHaveValue('9');
+  await page.getByLabel('Beam model').selectOption('elliptical_gaussian');
+  await expect(page.getByLabel('Length (m)')).toHaveValue('120');
+  await expect(page.getByLabel('Width (m)')).toHaveValue('14.5');
+  await page.getByLabel('Beam model').selectOption('gaussian');
+  await expect(page.getByLabel('Aperture (m)')).toHaveValue('77');
+  await expect(page.getByLabel('FWHM factor k')).toHaveValue('1.3');
+  await expect(page.getByTestId('result-title')).toContainText('77 m', { timeout: 60_000 });
+});
