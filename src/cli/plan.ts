@@ -3,7 +3,7 @@ import { dirname, join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { prepareOutDir } from './outDir';
 import { describeEstimate, estimateRun } from '../core/limits';
-import { CHUNK_ROWS, antennaTempCsvChunks, coverageCsvChunks, trackCsvChunks } from '../core/export/csv';
+import { CHUNK_ROWS, antennaTempCsvChunks, coverageCsvChunks, targetsCsv, trackCsvChunks } from '../core/export/csv';
 import { readSkyMaps } from './skyMaps';
 import { depthAreaCsv } from '../core/sky/depthArea';
 import { coverageFits } from '../core/export/fits';
@@ -25,6 +25,8 @@ the zenith track and the exposure maps, and writes into DIR (made if missing):
   depth_area.csv    sky area (deg^2) with noise at or below each level, per frequency
   coverage.csv   one row per HEALPix RING pixel: position and hours per frequency
   coverage.fits  the exposure maps as a HEALPix binary-table FITS file
+  targets.csv    only with targets: one row per target and frequency (hours in
+                 the half-power beam, exposure, mean antenna temperature, noise)
 Each file is written under a temporary name and renamed once all are complete.
 
 Options:
@@ -97,6 +99,7 @@ export async function planCommand(argv: string[], io: CliIo, deps: PlanDeps = {}
     files.write(join(outDir, 'track.csv'), counted(trackCsvChunks(result), result.track.n, 'writing track.csv', progress.report));
     if (result.t_ant) files.write(join(outDir, 'antenna_temp.csv'), counted(antennaTempCsvChunks(result), result.track.n, 'writing antenna_temp.csv', progress.report));
     files.write(join(outDir, 'depth_area.csv'), [depthAreaCsv(result)]);
+    if (result.summary.targets) files.write(join(outDir, 'targets.csv'), [targetsCsv(result)]);
     const npix = 12 * scenario.map.nside ** 2;
     files.write(join(outDir, 'coverage.csv'), counted(coverageCsvChunks(result), npix, 'writing coverage.csv', progress.report));
     progress.report('writing coverage.fits', 0);

@@ -1,4 +1,4 @@
-import type { BeamModel, BeamSpec, SkySpec, SkyModelName, BodyName, FeedOffset, FieldIssue, HorizonPoint, PatternTable, PlanSegment, Pointing, Scenario } from './types';
+import type { BeamModel, BeamSpec, SkySpec, Target, SkyModelName, BodyName, FeedOffset, FieldIssue, HorizonPoint, PatternTable, PlanSegment, Pointing, Scenario } from './types';
 import { hasIonosphere, interplanetaryCutoffMHz } from './shielding/plasma';
 import { parseUtcMs } from './time';
 import { fwhmRad } from './beam';
@@ -60,6 +60,11 @@ export const SCENARIO_LIMITS = {
   sky_map_file_max_chars: 1000,
   spectral_index: [-5, 1],
   ground_temp_k: [0, 10_000],
+  /** Targets: named sky positions (RA/Dec or galactic l/b); dec and b in [-90, 90], ra and l in [0, 360) */
+  targets_count: [0, 32],
+  target_name_max_chars: 80,
+  target_lat_deg: [-90, 90],
+  target_lon_deg: [0, 360],
   /** Largest scenario text (JSON file, URL payload after decoding) accepted. */
   text_max_bytes: 2_000_000,
 } as const;
@@ -316,7 +321,8 @@ function horizonMask(iss: Issues, field: string, v: unknown): HorizonPoint[] | n
 
 // ---------------------------------------------------------------- the scenario
 
-const TOP_KEYS = ['$schema', 'format', 'name', 'site', 'span', 'telescope', 'constraints', 'map', 'sky'] as const;
+const TOP_KEYS = ['$schema', 'format', 'name', 'site', 'span', 'telescope', 'constraints', 'map', 'sky', 'targets'] as const;
+const TARGET_KEYS = ['name', 'ra_deg', 'dec_deg', 'l_deg', 'b_deg'] as const;
 const SKY_KEYS = ['model', 'maps', 'spectral_index', 'ground_temp_k'] as const;
 const SKY_MAP_KEYS = ['file', 'frequency_mhz'] as const;
 const SKY_MODELS: readonly SkyModelName[] = ['galaxy', 'uniform', 'map'];
@@ -481,6 +487,8 @@ function parseUnsafe(input: unknown): ParseResult {
 
   let sky: SkySpec | undefined;
   if (has(top, 'sky')) sky = skySpecOf(iss, top.sky);
+  let targets: Target[] | undefined;
+  if (has(top, 'targets')) targets = targetsOf(iss, top.targets);
 
   if (iss.count > 0) return { ok: false, issues: iss.result() };
   const s: Scenario = {
@@ -501,7 +509,78 @@ function parseUnsafe(input: unknown): ParseResult {
   if (feeds !== undefined) s.telescope.feeds = feeds;
   if (plan !== undefined) s.telescope.pointing_plan = plan;
   if (sky !== undefined) s.sky = sky;
+  if (targets !== undefined) s.targets = targets;
   return { ok: true, scenario: s };
+}
+
+/** A longitude-like angle in [0, 360): 360 itself is refused (write 0), so each direction has one spelling. */
+function lonNum(iss: Issues, field: string, v: unknown): number | undefined {
+  const [lo, hi] = SCENARIO_LIMITS.target_lon_deg;
+  const what = `a number of degrees from ${lo} up to (not including) ${hi}`;
+  if (typeof v !== 'number' || !Number.isFinite(v) || v < lo || v >= hi) {
+    iss.add(field, v === undefined ? `${field} is required (${what})` : `${field} must be ${what}, got ${describeValue(v)}`);
+    return undefined;
+  }
+  return v === 0 ? 0 : v;
+}
+
+/**
+ * `targets`: up to targets_count[1] named positions, each { name, ra_deg, dec_deg }
+ * (J2000/ICRS) or { name, l_deg, b_deg } (galactic); names distinct and printable.
+ */
+function targetsOf(iss: Issues, v: unknown): Target[] | undefined {
+  const f = 'targets';
+  const [lo, hi] = SCENARIO_LIMITS.targets_count;
+  const maxC = SCENARIO_LIMITS.target_name_max_chars;
+  if (!Array.isArray(v)) {
+    iss.add(f, `${f} must be a list of up to ${hi} targets ({ "name": "A", "ra_deg": 83.6, "dec_deg": 22.0 } or { "name": "B", "l_deg": 0, "b_deg": 0 }), got ${describeValue(v)}`);
+    return undefined;
+  }
+  if (v.length < lo || v.length > hi) {
+    iss.add(f, `${f} must have at most ${hi} targets, got ${v.length}`);
+    return undefined;
+  }
+  const before = iss.count;
+  const out: Target[] = [];
+  const seen = new Map<string, number>();
+  for (let i = 0; i < v.length; i++) {
+    const w = `${f}[${i}]`;
+    const o = readObject(iss, w, v[i], TARGET_KEYS);
+    if (!o) continue;
+    const name = o.name;
+    let okName = false;
+    if (typeof name !== 'string' || name.trim() === '') {
+      iss.add(`${w}.name`, name === undefined || name === ''
+        ? `${w}.name is required (1 to ${maxC} printable characters)`
+        : `${w}.name must be 1 to ${maxC} printable characters, got ${describeValue(name)}`);
+    } else if (name.length > maxC) iss.add(`${w}.name`, `${w}.name must be at most ${maxC} characters, got ${name.length}`);
+    else if (CONTROL_CHARS.test(name) || LONE_SURROGATE.test(name)) iss.add(`${w}.name`, `${w}.name must be printable text without control characters or broken characters, got ${describeValue(name)}`);
+    else {
+      const j = seen.get(name.trim());
+      if (j !== undefined) iss.add(`${w}.name`, `${w}.name repeats ${describeValue(name)} (already at ${f}[${j}]); give each target its own name`);
+      else { seen.set(name.trim(), i); okName = true; }
+    }
+    const eq = has(o, 'ra_deg') || has(o, 'dec_deg');
+    const gal = has(o, 'l_deg') || has(o, 'b_deg');
+    if (eq && gal) {
+      iss.add(w, `${w} has both equatorial (ra_deg, dec_deg) and galactic (l_deg, b_deg) coordinates: give one pair`);
+      continue;
+    }
+    if (!eq && !gal) {
+      iss.add(w, `${w} needs a position: ra_deg and dec_deg (J2000) or l_deg and b_deg (galactic)`);
+      continue;
+    }
+    if (eq) {
+      const ra = lonNum(iss, `${w}.ra_deg`, o.ra_deg);
+      const dec = num(iss, `${w}.dec_deg`, o.dec_deg, SCENARIO_LIMITS.target_lat_deg);
+      if (okName && ra !== undefined && dec !== undefined) out.push({ name: name as string, ra_deg: ra, dec_deg: dec });
+    } else {
+      const l = lonNum(iss, `${w}.l_deg`, o.l_deg);
+      const b = num(iss, `${w}.b_deg`, o.b_deg, SCENARIO_LIMITS.target_lat_deg);
+      if (okName && l !== undefined && b !== undefined) out.push({ name: name as string, l_deg: l, b_deg: b });
+    }
+  }
+  return iss.count === before ? out : undefined;
 }
 
 /** `sky`: model galaxy (default) | uniform | map (maps[] + spectral_index with one map); ground_temp_k optional. */
@@ -988,7 +1067,12 @@ export function canonical(s: Scenario): Scenario {
     },
     map: { nside: s.map.nside, galactic_band_deg: s.map.galactic_band_deg, galactic_center_radius_deg: s.map.galactic_center_radius_deg },
     ...(s.sky !== undefined ? { sky: canonicalSky(s.sky) } : {}),
+    ...(s.targets !== undefined ? { targets: s.targets.map(canonicalTarget) } : {}),
   };
+}
+
+function canonicalTarget(t: Target): Target {
+  return 'ra_deg' in t ? { name: t.name, ra_deg: t.ra_deg, dec_deg: t.dec_deg } : { name: t.name, l_deg: t.l_deg, b_deg: t.b_deg };
 }
 
 function canonicalSky(k: SkySpec): SkySpec {

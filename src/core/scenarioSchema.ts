@@ -54,6 +54,13 @@ const beam = z.discriminatedUnion('model', [
 
 const frequency = inRange(L.frequency_mhz, 'MHz');
 
+const targetName = z.string().min(1).max(L.target_name_max_chars).describe('a name of its own (distinct among the targets)');
+const lonLike = (what: string) => z.number().min(L.target_lon_deg[0]).lt(L.target_lon_deg[1]).describe(what);
+const target = z.union([
+  z.strictObject({ name: targetName, ra_deg: lonLike('right ascension, J2000/ICRS, degrees'), dec_deg: inRange(L.target_lat_deg, 'declination, J2000/ICRS, degrees') }),
+  z.strictObject({ name: targetName, l_deg: lonLike('galactic longitude, degrees'), b_deg: inRange(L.target_lat_deg, 'galactic latitude, degrees') }),
+]);
+
 /** The scenario file as written (before defaults are filled in). */
 export const scenarioFileSchema = z.strictObject({
   $schema: z.string().optional().describe('where this schema lives (ignored by Swathe)'),
@@ -113,6 +120,8 @@ export const scenarioFileSchema = z.strictObject({
     spectral_index: inRange(L.spectral_index, 'brightness-temperature index beta (one map only)').optional(),
     ground_temp_k: inRange(L.ground_temp_k, 'temperature of the ground the beam sees below the horizon, K').optional(),
   }).optional(),
+  targets: z.array(target).min(L.targets_count[0]).max(L.targets_count[1]).optional()
+    .describe('named sky positions reported in targets.csv and summary.json: RA/Dec (J2000) or galactic l/b'),
 });
 
 /** The JSON Schema (draft 2020-12) published beside the app. */

@@ -57,6 +57,14 @@ export interface SkySpec {
   ground_temp_k?: number;
 }
 
+/**
+ * A named sky position (`targets[]`): J2000/ICRS right ascension and
+ * declination, or galactic longitude and latitude; exactly one pair is present.
+ */
+export type Target =
+  | { name: string; ra_deg: number; dec_deg: number }
+  | { name: string; l_deg: number; b_deg: number };
+
 /** A validated, normalised `swathe.scenario/1` (defaults filled in). */
 export interface Scenario {
   format: 'swathe.scenario/1';
@@ -94,6 +102,8 @@ export interface Scenario {
   map: { nside: number; galactic_band_deg: number; galactic_center_radius_deg: number };
   /** added, optional: the sky brightness model; absent means the default (`galaxy`); kept only when given */
   sky?: SkySpec;
+  /** added, optional: named sky positions to report on (targets.csv, summary.targets); kept only when given */
+  targets?: Target[];
 }
 
 /** A horizon-mask point: azimuth and elevation (degrees), optionally the distance to that point of the rim (metres). */
@@ -214,6 +224,27 @@ export interface GalacticSummary {
   usable_hours_zenith_near_center: number;
 }
 
+/** Figures of one target at one frequency (summary.targets[].frequencies[], targets.csv). */
+export interface TargetFrequencyFigures {
+  mhz: number;
+  usable_hours_in_beam: number;
+  exposure_h: number;
+  /** NaN (null in JSON) when the target is never in the half-power beam */
+  t_ant_mean_k: number;
+  /** NaN (null in JSON) when the exposure is 0 */
+  noise_k: number;
+}
+
+/** One target of summary.targets: both coordinate pairs and the figures per frequency. */
+export interface TargetSummary {
+  name: string;
+  ra_deg: number;
+  dec_deg: number;
+  l_deg: number;
+  b_deg: number;
+  frequencies: TargetFrequencyFigures[];
+}
+
 export interface Summary {
   format: 'swathe.summary/1';
   scenario: Scenario;
@@ -227,6 +258,8 @@ export interface Summary {
   sensitivity?: SensitivitySummary;
   /** per pointing-plan segment (only with a plan) */
   segments?: SegmentSummary[];
+  /** added: per target of scenario.targets (only when targets are given) */
+  targets?: TargetSummary[];
 }
 
 /** Everything a plan run produces; the UI and the exports read only this. */

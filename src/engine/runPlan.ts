@@ -27,6 +27,8 @@ import { skyModelFor, type LoadedSkyMap } from '../core/sky/model';
 import { antennaTempGrid, antennaTempStage, type AntennaTempResult } from '../core/sky/antennaTemp';
 import { SkyMapError } from '../core/sky/fitsMap';
 import { tAntSummary } from '../core/sky/tAntSummary';
+import { targetPosition } from '../core/targets/position';
+import { targetFiguresStage } from '../core/targets/figures';
 
 export type ProgressFn = (stage: string, fraction: number) => void;
 
@@ -44,7 +46,8 @@ export interface RunOptions {
 /** Work between two turns of the event loop (ms). Progress goes out at each turn. */
 export const SLICE_MS = 50;
 
-export const STAGES = ['ephemeris', 'usable', 'antenna temperature', 'hits', 'exposure', 'summary'] as const;
+/** 'targets' runs only when the scenario has targets. */
+export const STAGES = ['ephemeris', 'usable', 'antenna temperature', 'hits', 'exposure', 'targets', 'summary'] as const;
 
 export class CancelledError extends Error {
   constructor(message = 'The computation was cancelled') {
@@ -345,6 +348,25 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     d.report('exposure', 1);
   }
 
+  // Figures per target: the same beams, usable flags and antenna temperatures as the maps
+  let targetSummaries: Summary['targets'];
+  if (s.targets && s.targets.length) {
+    d.report('targets', 0);
+    const segsT = segmentsOf(s);
+    targetSummaries = await d.run('targets', targetFiguresStage({
+      targets: s.targets.map(targetPosition),
+      track,
+      frames: tFrames,
+      beams: freqsMhz.map((f) => segsT.map((_, g) => antennaBeam(s, f, g))),
+      segOf: segsT.length > 1 ? sampleSegments(track, segsT) : null,
+      usableByFreq,
+      tAnt: tAnt.t_ant_k,
+      receiverK: sens.receiver_temp_k,
+      bandwidthMHz: sens.bandwidth_mhz,
+    }));
+    d.report('targets', 1);
+  }
+
   d.report('summary', 0);
   const summary: Summary = {
     format: 'swathe.summary/1',
@@ -357,6 +379,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     frequencies: freqs,
     sensitivity: { ...sens, sky_model: sky.label, note: skyModelNote(sky.spec.model), estimator: NOISE_ESTIMATOR },
     ...(segmentSummaries ? { segments: segmentSummaries } : {}),
+    ...(targetSummaries ? { targets: targetSummaries } : {}),
   };
   d.check();
   d.report('summary', 1);

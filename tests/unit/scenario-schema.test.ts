@@ -93,6 +93,19 @@ const structural: [string, (s: Record<string, any>) => void, boolean][] = [
   ['sky model "map" with one map and an index', (s) => { s.sky = { model: 'map', maps: [{ file: 'sky408.fits', frequency_mhz: 408 }], spectral_index: -2.5 }; }, true],
   ['sky model "haze"', (s) => { s.sky = { model: 'haze' }; }, false],
   ['a feed offset of 61 degrees', (s) => { s.telescope.feeds = [{ x_offset_deg: 61, y_offset_deg: 0 }]; }, false],
+  ['targets in RA/Dec and l/b at the ends of their ranges', (s) => { s.targets = [{ name: 'A', ra_deg: 0, dec_deg: -90 }, { name: 'B', l_deg: 359.999, b_deg: 90 }]; }, true],
+  ['a target at dec 95', (s) => { s.targets = [{ name: 'A', ra_deg: 10, dec_deg: 95 }]; }, false],
+  ['a target at b -91', (s) => { s.targets = [{ name: 'A', l_deg: 10, b_deg: -91 }]; }, false],
+  ['a target at ra 360', (s) => { s.targets = [{ name: 'A', ra_deg: 360, dec_deg: 0 }]; }, false],
+  ['a target at ra 400', (s) => { s.targets = [{ name: 'A', ra_deg: 400, dec_deg: 0 }]; }, false],
+  ['a target at l -0.5', (s) => { s.targets = [{ name: 'A', l_deg: -0.5, b_deg: 0 }]; }, false],
+  ['a target with both coordinate pairs', (s) => { s.targets = [{ name: 'A', ra_deg: 1, dec_deg: 2, l_deg: 3, b_deg: 4 }]; }, false],
+  ['a target with no position', (s) => { s.targets = [{ name: 'A' }]; }, false],
+  ['a target with no name', (s) => { s.targets = [{ ra_deg: 1, dec_deg: 2 }]; }, false],
+  ['a target with an empty name', (s) => { s.targets = [{ name: '', ra_deg: 1, dec_deg: 2 }]; }, false],
+  ['32 targets', (s) => { s.targets = Array.from({ length: 32 }, (_, i) => ({ name: `T${i}`, ra_deg: i, dec_deg: 0 })); }, true],
+  ['33 targets', (s) => { s.targets = Array.from({ length: 33 }, (_, i) => ({ name: `T${i}`, ra_deg: i, dec_deg: 0 })); }, false],
+  ['an empty target list', (s) => { s.targets = []; }, true],
 ];
 for (const [what, edit, valid] of structural) cases.push({ what, make: () => { const s = base(); edit(s); return s; }, valid });
 

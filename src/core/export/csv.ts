@@ -233,3 +233,23 @@ export function* antennaTempCsvChunks(result: PlanResult): Generator<string, voi
 export function antennaTempCsv(result: PlanResult): string {
   return [...antennaTempCsvChunks(result)].join('');
 }
+
+/**
+ * targets.csv (only when the scenario has targets): header row, then one row
+ * per target and frequency, in the scenario's order of both. Positions in
+ * degrees (6 decimals), hours as summary.json rounds them, kelvin to 6
+ * significant digits; a figure with no value (never in the beam) is empty.
+ */
+export function targetsCsv(result: PlanResult): string {
+  const targets = result.summary.targets ?? [];
+  const head = ['name', 'ra_deg', 'dec_deg', 'l_deg', 'b_deg', 'frequency_mhz', 'usable_hours_in_beam_h', 'exposure_h', 't_ant_mean_k', 'noise_k'];
+  const hours = (x: number) => (Number.isFinite(x) ? String(Number(x.toFixed(6))) : '');
+  let out = head.join(',') + '\n';
+  for (const t of targets) {
+    const pos = [csvCell(t.name), fmtLonDeg(t.ra_deg), fmtDeg(t.dec_deg), fmtLonDeg(t.l_deg), fmtDeg(t.b_deg)].join(',');
+    for (const f of t.frequencies) {
+      out += `${pos},${String(f.mhz)},${hours(f.usable_hours_in_beam)},${hours(f.exposure_h)},${fmtK(f.t_ant_mean_k)},${fmtK(f.noise_k)}\n`;
+    }
+  }
+  return out;
+}

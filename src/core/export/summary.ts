@@ -16,6 +16,9 @@ const FREQ = [
   'exposure_median_h_covered', 'usable_hours_beam_in_band', 'usable_hours_beam_near_center',
 ];
 
+const TARGET = ['name', 'ra_deg', 'dec_deg', 'l_deg', 'b_deg', 'frequencies'];
+const TARGET_FREQ = ['mhz', 'usable_hours_in_beam', 'exposure_h', 't_ant_mean_k', 'noise_k'];
+
 function ordered(o: object, known: string[]): Record<string, unknown> {
   const src = o as Record<string, unknown>;
   const out: Record<string, unknown> = {};
@@ -48,5 +51,12 @@ export function summaryJson(summary: Summary): string {
   top.zenith = ordered(summary.zenith, ZENITH);
   top.galactic = roundHours(ordered(summary.galactic, GALACTIC));
   top.frequencies = summary.frequencies.map((f) => roundHours(ordered(f, FREQ)));
+  if (summary.targets) {
+    top.targets = summary.targets.map((t) => {
+      const o = ordered(t, TARGET);
+      o.frequencies = t.frequencies.map((f) => roundHours(ordered(f, TARGET_FREQ)));
+      return o;
+    });
+  }
   return JSON.stringify(top, null, 2) + '\n';
 }
