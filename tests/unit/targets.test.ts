@@ -98,7 +98,7 @@ function scenarioFor(variant: 'dish' | 'tilted fan' | 'dipole'): Scenario {
   if (variant === 'dipole') {
     delete s.telescope.aperture_m;
     s.telescope.frequencies_mhz = [4, 8];
-    s.telescope.beam = { model: 'dipole', length_m: 15, height_m: 5 };
+    s.telescope.beam = { model: 'dipole', length_m: 15, height_m: 5, fwhm_factor: 1.15 };
     s.map.nside = 32;
   }
   return s;
