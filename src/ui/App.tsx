@@ -34,10 +34,11 @@ import { SurveyPanel } from './survey/SurveyPanel';
 import { QuantitySelect } from './sensitivity/QuantitySelect';
 import { NoiseNote } from './sensitivity/NoiseNote';
 import type { FieldIssue } from '../core/types';
-import { readHealpixFits, SkyMapError, SKY_MAP_LIMITS, type HealpixMap } from '../core/sky/fitsMap';
+import { SkyMapError, SKY_MAP_LIMITS, type HealpixMap } from '../core/sky/fitsMap';
 import { checkSkyMaps, type LoadedSkyMap } from '../core/sky/model';
 import { getSkyMap, isQuotaError, putSkyMap } from './state/skyMapStore';
-import { withMapRow, type SkyMapStatus } from './panel/SkyFields';
+import { readSkyMapInWorker } from './state/skyMapReader';
+import { withMapRow, type SkyMapStatus, type SkyMessage } from './panel/SkyFields';
 import { BeamView } from './antenna/BeamView';
 import { antennaLabelsByPath } from './antenna/labels';
 import { skyBeamAt } from '../core/antenna/cuts';
@@ -87,7 +88,9 @@ export function App() {
   // the user's sky maps: bytes in IndexedDB by file name, read maps in memory
   const [skyLoaded, setSkyLoaded] = useState<Record<string, HealpixMap>>({});
   const [skyStatus, setSkyStatus] = useState<Record<string, SkyMapStatus>>({});
-  const [skyMsg, setSkyMsg] = useState<{ text: string; error: boolean } | null>(null);
+  const [skyMsg, setSkyMsg] = useState<SkyMessage | null>(null);
+  // fraction read of each map being read back from storage (in the map worker)
+  const [skyProgress, setSkyProgress] = useState<Record<string, number>>({});
   const [skyVersion, setSkyVersion] = useState(0);
   const skyLoadedRef = useRef(skyLoaded);
   skyLoadedRef.current = skyLoaded;
@@ -119,15 +122,16 @@ export function App() {
     for (const name of mapNames ? mapNames.split('\n') : []) {
       if (skyStatus[name]) continue;
       setSkyStatus((p) => ({ ...p, [name]: 'loading' }));
-      getSkyMap(name).then((bytes) => {
-        if (!bytes) {
+      getSkyMap(name).then(async (blob) => {
+        if (!blob) {
           setSkyStatus((p) => ({ ...p, [name]: 'missing' }));
           if ((draft.skyModel ?? 'galaxy') === 'map') {
             setNotices((p) => [...p, `The scenario names the sky map ${name}, which this browser does not hold (a link or a scenario file carries only the map's name): load the file again in the Sky section.`]);
           }
           return;
         }
-        const map = readHealpixFits(bytes, name);
+        // read in the map worker: a large map would otherwise freeze the page
+        const map = await readSkyMapInWorker(blob, name, (f) => setSkyProgress((p) => ({ ...p, [name]: f })));
         setSkyLoaded((p) => ({ ...p, [name]: map }));
         setSkyStatus((p) => ({ ...p, [name]: 'loaded' }));
         setSkyVersion((v) => v + 1);
@@ -146,11 +150,12 @@ export function App() {
         setSkyMsg({ text: `${name} was not loaded: it is ${(file.size / 2 ** 20).toFixed(0)} MB, more than the ${SKY_MAP_LIMITS.max_file_bytes / 2 ** 20} MB a sky map may be. Your sky settings are unchanged.`, error: true });
         continue;
       }
-      let bytes: Uint8Array;
       let map: HealpixMap;
       try {
-        bytes = new Uint8Array(await file.arrayBuffer());
-        map = readHealpixFits(bytes, name);
+        // the worker reads the File itself: the page stays responsive and never holds the whole file
+        const reading = `Reading ${name} (${(file.size / 2 ** 20).toFixed(1)} MB)…`;
+        setSkyMsg({ text: reading, error: false, progress: 0 });
+        map = await readSkyMapInWorker(file, name, (f) => setSkyMsg({ text: reading, error: false, progress: f }));
         // the maps already listed must agree with it in coordinates and nside
         const others: LoadedSkyMap[] = (draft.skyMaps ?? []).filter((r) => r.file !== name && skyLoadedRef.current[r.file])
           .map((r, i) => ({ file: r.file, frequency_mhz: i + 1, map: skyLoadedRef.current[r.file] }));
@@ -167,7 +172,7 @@ export function App() {
       setDraft((d) => ({ ...d, skyModel: 'map', skyMaps: withMapRow(d.skyMaps ?? [], name) }));
       const what = `${name}: nside ${map.fileNside}${map.nside !== map.fileNside ? ` (used at ${map.nside})` : ''}, ${map.ordering}, coordinates ${map.coordsys}, unit ${map.unit}`;
       try {
-        await putSkyMap(name, bytes);
+        await putSkyMap(name, file);
         setSkyMsg({ text: `Loaded ${what}; kept in this browser's storage.`, error: false });
       } catch (e) {
         setSkyMsg({
@@ -304,7 +309,10 @@ export function App() {
             onClick={() => {
               if (!scenario) return;
               const link = shareLink(scenario);
-              const say = (n: string) => setNotices((p) => [...p.filter((x) => !x.startsWith('Link')), n]);
+              // a link carries a sky map's name, never its bytes
+              const maps = scenario.sky?.model === 'map' ? (scenario.sky.maps ?? []).map((m) => m.file) : [];
+              const mapNote = maps.length ? ` It names the sky map${maps.length > 1 ? 's' : ''} ${maps.join(', ')} but does not carry ${maps.length > 1 ? 'them' : 'it'}: whoever opens it must load ${maps.length > 1 ? 'them' : 'it'} again in the Sky section.` : '';
+              const say = (n: string) => setNotices((p) => [...p.filter((x) => !x.startsWith('Link')), n + mapNote]);
               navigator.clipboard?.writeText(link).then(
                 () => say('Link to this scenario copied to the clipboard.'),
                 () => say(`Link to this scenario (copy it by hand): ${link}`),
@@ -361,7 +369,7 @@ export function App() {
             the downloads sit under the map.
           </p>
           <ScenarioPanel draft={draft} issues={issues} scenario={scenario} onChange={patch}
-            sky={{ status: skyStatus, message: skyMsg, onFiles: (f) => void addSkyFiles(f) }} />
+            sky={{ status: skyStatus, progress: skyProgress, message: skyMsg, onFiles: (f) => void addSkyFiles(f) }} />
         </aside>
         <main className="main">
           <RunBar

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Scenario } from '../../src/core/types';
 import { SHORT, urlFor, guardHosts, waitForMap, mapHash, MAP } from './helpers';
-import { PY } from '../reference/pythonRef';
+import { PY, requirePython } from '../reference/pythonRef';
 
 // The sky section (issue 12): the sky model chosen in the form reaches the
 // engine, the antenna temperature in the table equals the CLI's summary.json
@@ -174,4 +174,96 @@ test('a healpy-written map picked in the Sky section computes, and its T_ant equ
     expect(u[i].median).toBe(f.t_ant_median_k);
     expect(u[i].max).toBe(f.t_ant_max_k);
   });
+});
+
+test('a picked map is kept in this browser: after a reload it is read back and the figures are unchanged; a link says the map must be loaded again', async ({ page, browser }) => {
+  // under CI=true a missing healpy throws here (a failure, never a skip)
+  test.skip(!requirePython(['healpy', 'numpy'], 'the kept-sky-map browser test'), 'healpy is not installed (a failure under CI=true)');
+  const dir = mkdtempSync(join(tmpdir(), 'swathe-e2e-skykeep-'));
+  const fits = join(dir, 'kept408.fits');
+  // an invented galactic sky at 408 MHz, written by healpy in NESTED order with one value per row
+  execFileSync(PY, ['-c', [
+    'import healpy as hp, numpy as np, sys',
+    'n=32; th,ph=hp.pix2ang(n, np.arange(hp.nside2npix(n)))',
+    'm=15+60*np.exp(-((np.pi/2-th)/0.25)**2)+5*np.cos(ph)',
+    "hp.write_map(sys.argv[1], hp.reorder(m, r2n=True), nest=True, coord='G', column_units='K', fits_IDL=False, overwrite=True)",
+  ].join('\n'), fits], { stdio: 'pipe' });
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  await page.getByLabel('Sky model').selectOption('map');
+  await page.getByLabel('Sky map FITS file').setInputFiles({ name: 'kept408.fits', mimeType: 'application/fits', buffer: readFileSync(fits) });
+  await expect(page.getByTestId('sky-file-msg')).toContainText("Loaded kept408.fits: nside 32, NESTED, coordinates G, unit K; kept in this browser's storage");
+  await page.getByLabel('Map 1 frequency (MHz)').fill('408');
+  await page.getByLabel('Spectral index β').fill('-2.6');
+  await expect(page.getByTestId('result-title')).toBeVisible();
+  // the run with the map: the table's T_ant differs from the galaxy model's
+  const galaxy = await tantCells(page, 1);
+  await expect.poll(async () => (await tantCells(page, 1))[0].median, { timeout: 60_000 }).not.toBe(galaxy[0].median);
+  await waitForMap(page);
+  const before = await tantCells(page, SHORT.telescope.frequencies_mhz.length);
+  const tableBefore = await page.getByTestId('results-table').innerText();
+
+  await page.reload();
+  await waitForMap(page);
+  await expect(page.getByLabel('Sky model')).toHaveValue('map');
+  await expect(page.getByTestId('sky-map-row-0')).toContainText('kept408.fits');
+  await expect(page.getByTestId('sky-map-row-0').locator('.sky-map-state')).toHaveText('loaded');
+  await expect(page.getByLabel('Map 1 frequency (MHz)')).toHaveValue('408');
+  await expect(page.getByTestId('notices')).toHaveCount(0);
+  expect(await tantCells(page, SHORT.telescope.frequencies_mhz.length)).toEqual(before);
+  expect(await page.getByTestId('results-table').innerText()).toBe(tableBefore);
+
+  // the link names the map but cannot carry it: the copy notice says so
+  await page.getByRole('button', { name: 'Copy link' }).click();
+  await expect(page.getByTestId('notices')).toContainText(/Link to this scenario.*kept408\.fits.*load it again/s);
+  // opened where the map was never loaded (a new browser profile): the row and a notice say to load it again, nothing runs with a guess
+  const link = page.url();
+  const other = await browser.newContext();
+  const otherOutside = await guardHosts(other);
+  const p2 = await other.newPage();
+  await p2.goto(link);
+  await expect(p2.getByLabel('Sky model')).toHaveValue('map');
+  await expect(p2.getByTestId('sky-map-row-0').locator('.sky-map-state')).toHaveText('not in this browser: load it again');
+  await expect(p2.getByTestId('notices')).toContainText('kept408.fits, which this browser does not hold');
+  await expect(p2.getByTestId('sky-maps-msg')).toContainText('Load the file again here');
+  expect(otherOutside).toEqual([]);
+  await other.close();
+});
+
+test('a large map is read in a worker: the page keeps drawing its progress, the map is degraded to the working nside; an oversized file is refused by name and limit', async ({ page }) => {
+  test.skip(!requirePython(['healpy', 'numpy'], 'the large-sky-map browser test'), 'healpy is not installed (a failure under CI=true)');
+  const dir = mkdtempSync(join(tmpdir(), 'swathe-e2e-skybig-'));
+  const big = join(dir, 'fine1024.fits');
+  // nside 1024 with 1024 values per row (healpy's fits_IDL form): 12.6 million pixels, 48 MiB
+  execFileSync(PY, ['-c', [
+    'import healpy as hp, numpy as np, sys',
+    'n=1024; m=np.random.default_rng(5).uniform(10, 100, hp.nside2npix(n)).astype(np.float32)',
+    "hp.write_map(sys.argv[1], m, coord='G', column_units='K', fits_IDL=True, overwrite=True, dtype=np.float32)",
+  ].join('\n'), big], { stdio: 'pipe' });
+  await page.goto(urlFor(SHORT));
+  await waitForMap(page);
+  await page.getByLabel('Sky model').selectOption('map');
+  // every progress value the page manages to draw while the file is read
+  await page.evaluate(() => {
+    const seen: number[] = [];
+    (window as unknown as { __progress: number[] }).__progress = seen;
+    new MutationObserver(() => {
+      const p = document.querySelector('[data-testid="sky-read-progress"]') as HTMLProgressElement | null;
+      if (p && !seen.includes(p.value)) seen.push(p.value);
+    }).observe(document.body, { subtree: true, childList: true, attributes: true });
+  });
+  await page.getByLabel('Sky map FITS file').setInputFiles(big);
+  await expect(page.getByTestId('sky-file-msg')).toContainText('Loaded fine1024.fits: nside 1024 (used at 512), RING, coordinates G, unit K', { timeout: 120_000 });
+  const drawn = await page.evaluate(() => (window as unknown as { __progress: number[] }).__progress);
+  // a reader on the main thread could not draw any value between the start and the end
+  expect(drawn.filter((v) => v > 0 && v < 1).length, `progress values drawn: ${drawn.join(', ')}`).toBeGreaterThanOrEqual(3);
+  expect(drawn).toEqual([...drawn].sort((a, b) => a - b));
+
+  // over the stated limit (README: files up to 512 MB): a sparse file, refused before reading, by name and limit
+  const huge = join(dir, 'huge2048.fits');
+  execFileSync('truncate', ['-s', String(513 * 2 ** 20), huge]);
+  await page.getByLabel('Sky map FITS file').setInputFiles(huge);
+  await expect(page.getByTestId('sky-file-msg')).toContainText('huge2048.fits was not loaded: it is 513 MB, more than the 512 MB a sky map may be');
+  await expect(page.getByTestId('sky-maps').locator('.sky-map-row')).toHaveCount(1);
+  await expect(page.getByTestId('sky-map-row-0')).toContainText('fine1024.fits');
 });

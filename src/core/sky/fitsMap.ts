@@ -102,8 +102,11 @@ function parseTform(t: string, label: string, key: string): { rep: number; type:
 /**
  * Reads the first column of a HEALPix BINTABLE map. `label` names the file in
  * messages. Throws SkyMapError (never anything else for bad bytes).
+ * `onProgress` hears the fraction of pixels read, about every million pixels
+ * (the app reads in a worker and shows it; an nside-2048 map has 50 million).
  */
-export function readHealpixFits(bytes: Uint8Array, label: string, maxNside: number = SKY_MAP_LIMITS.working_nside): HealpixMap {
+export function readHealpixFits(bytes: Uint8Array, label: string, maxNside: number = SKY_MAP_LIMITS.working_nside,
+  onProgress?: (fraction: number) => void): HealpixMap {
   if (bytes.length > SKY_MAP_LIMITS.max_file_bytes) {
     throw new SkyMapError(label, `${label} is ${(bytes.length / 1048576).toFixed(0)} MB, more than the ${SKY_MAP_LIMITS.max_file_bytes / 1048576} MB a sky map may have (degrade it to nside 512 or less first)`);
   }
@@ -126,13 +129,14 @@ export function readHealpixFits(bytes: Uint8Array, label: string, maxNside: numb
     const rows = intKey(h, 'NAXIS2', label, 0);
     const pcount = intKey(h, 'PCOUNT', label, 0);
     const dataBytes = rowBytes * rows + pcount;
-    if (h.cards.get('XTENSION') === 'BINTABLE') return readTable(bytes, h, dataStart, rowBytes, rows, label, maxNside);
+    if (h.cards.get('XTENSION') === 'BINTABLE') return readTable(bytes, h, dataStart, rowBytes, rows, label, maxNside, onProgress);
     off = dataStart + Math.ceil(dataBytes / 2880) * 2880;
   }
   throw new SkyMapError(label, `${label} is not a HEALPix map: it has no binary-table extension (PIXTYPE = 'HEALPIX')`);
 }
 
-function readTable(bytes: Uint8Array, h: Header, dataStart: number, rowBytes: number, rows: number, label: string, maxNside: number): HealpixMap {
+function readTable(bytes: Uint8Array, h: Header, dataStart: number, rowBytes: number, rows: number, label: string, maxNside: number,
+  onProgress?: (fraction: number) => void): HealpixMap {
   const pixtype = h.cards.get('PIXTYPE');
   if (pixtype !== undefined && pixtype.toUpperCase() !== 'HEALPIX') {
     throw new SkyMapError(label, `${label} is not a HEALPix map: PIXTYPE = '${pixtype}' (must be 'HEALPIX')`);
@@ -192,7 +196,9 @@ function readTable(bytes: Uint8Array, h: Header, dataStart: number, rowBytes: nu
   const cnt = new Uint32Array(npixOut);
   const isUnseen = (v: number): boolean => !(v === v) || Math.abs(v / HEALPIX_UNSEEN - 1) < 1e-5 || !Number.isFinite(v);
   let seen = 0;
+  const every = 1 << 20;
   for (let k = 0; k < npixFile; k++) {
+    if (onProgress && (k & (every - 1)) === 0 && k > 0) onProgress(k / npixFile);
     const raw = get(k);
     if (isUnseen(raw)) continue;
     const v = (raw * tscal + tzero) * scale;
@@ -204,6 +210,7 @@ function readTable(bytes: Uint8Array, h: Header, dataStart: number, rowBytes: nu
     seen++;
   }
   if (seen === 0) throw new SkyMapError(label, `${label}: every pixel is UNSEEN (missing); the map has no data`);
+  onProgress?.(1);
   const values = new Float32Array(npixOut);
   const outIsNest = ordering === 'NESTED' || group > 1;
   for (let p = 0; p < npixOut; p++) {

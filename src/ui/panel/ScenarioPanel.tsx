@@ -7,12 +7,14 @@ import { FrequencyList } from './FrequencyList';
 import { HorizonMask } from './HorizonMask';
 import { ShieldingFields } from './ShieldingFields';
 import { SensitivityFields } from '../sensitivity/SensitivityFields';
-import { SkyFields, type SkyMapStatus } from './SkyFields';
+import { SkyFields, type SkyMapStatus, type SkyMessage } from './SkyFields';
 
 /** What the sky section needs from the app: the maps' state in storage and the file handler. */
 export interface SkyPanelProps {
   status: Record<string, SkyMapStatus>;
-  message: { text: string; error: boolean } | null;
+  /** per file name being read back from storage: the fraction read */
+  progress?: Record<string, number>;
+  message: SkyMessage | null;
   onFiles: (files: File[]) => void;
 }
 import { AntennaFields } from '../antenna/AntennaFields';

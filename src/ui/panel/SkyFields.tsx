@@ -14,15 +14,19 @@ import { SKY_MODEL_LABELS } from './skyLabels';
 // temperature seen below the horizon.
 
 export type SkyMapStatus = 'loaded' | 'loading' | 'missing';
+/** A note under the maps: a problem naming the file, a storage note, or a file being read (`progress` 0..1). */
+export interface SkyMessage { text: string; error: boolean; progress?: number }
 
-export function SkyFields({ draft, issues, onChange, status, message, onFiles }: {
+export function SkyFields({ draft, issues, onChange, status, progress = {}, message, onFiles }: {
   draft: Draft;
   issues: IssueIndex;
   onChange: (patch: Partial<Draft>) => void;
   /** per file name: whether its bytes are in memory */
   status: Record<string, SkyMapStatus>;
-  /** the last problem with a picked file (names the file), or a storage note */
-  message: { text: string; error: boolean } | null;
+  /** per file name being read back from storage: the fraction read */
+  progress?: Record<string, number>;
+  /** the last problem with a picked file (names the file), a storage note, or the file being read */
+  message: SkyMessage | null;
   onFiles: (files: File[]) => void;
 }) {
   const model = draft.skyModel ?? 'galaxy';
@@ -52,7 +56,9 @@ export function SkyFields({ draft, issues, onChange, status, message, onFiles }:
             <div className="sky-map-row" key={r.id} data-testid={`sky-map-row-${i}`}>
               <span className="sky-map-name" title={r.file}>{r.file}</span>
               <span className={`sky-map-state ${status[r.file] ?? 'missing'}`}>
-                {status[r.file] === 'loaded' ? 'loaded' : status[r.file] === 'loading' ? 'reading…' : 'not in this browser: load it again'}
+                {status[r.file] === 'loaded' ? 'loaded'
+                  : status[r.file] === 'loading' ? `reading…${progress[r.file] !== undefined ? ` ${Math.floor(progress[r.file] * 100)}%` : ''}`
+                    : 'not in this browser: load it again'}
               </span>
               <Field label={`Map ${i + 1} frequency (MHz)`} messages={issues.get(`sky.maps.${i}`)} className="sky-map-freq">
                 {(p) => <input {...p} inputMode="decimal" value={r.mhz} placeholder="MHz"
@@ -77,7 +83,12 @@ export function SkyFields({ draft, issues, onChange, status, message, onFiles }:
         </div>
       )}
       {message && (
-        <p className={message.error ? 'field-msg' : 'hint'} role={message.error ? 'alert' : 'status'} data-testid="sky-file-msg">{message.text}</p>
+        <p className={message.error ? 'field-msg' : 'hint'} role={message.error ? 'alert' : 'status'} data-testid="sky-file-msg">
+          {message.text}
+          {message.progress !== undefined && (
+            <> <progress max={1} value={message.progress} aria-label="Sky map read" data-testid="sky-read-progress" /> {Math.floor(message.progress * 100)}%</>
+          )}
+        </p>
       )}
       <div className="constraint">
         <label className="check">

@@ -22,13 +22,13 @@ export function isQuotaError(e: unknown): boolean {
   return n === 'QuotaExceededError' || n === 'NS_ERROR_DOM_QUOTA_REACHED' || /quota/i.test(String((e as Error)?.message ?? ''));
 }
 
-/** Stores a map's bytes under its name (replacing one of the same name). */
-export async function putSkyMap(name: string, bytes: Uint8Array): Promise<void> {
+/** Stores a map's bytes (the picked File itself, not a copy in memory) under its name, replacing one of the same name. */
+export async function putSkyMap(name: string, bytes: Blob | Uint8Array): Promise<void> {
   const db = await open();
   try {
     await new Promise<void>((resolve, reject) => {
       const tx = db.transaction(STORE, 'readwrite');
-      tx.objectStore(STORE).put(new Blob([bytes as BlobPart]), name);
+      tx.objectStore(STORE).put(bytes instanceof Blob ? bytes : new Blob([bytes as BlobPart]), name);
       tx.oncomplete = () => resolve();
       tx.onerror = () => reject(tx.error);
       tx.onabort = () => reject(tx.error ?? new Error('the write was aborted'));
@@ -38,8 +38,8 @@ export async function putSkyMap(name: string, bytes: Uint8Array): Promise<void> 
   }
 }
 
-/** A stored map's bytes, or null when this browser does not hold it. */
-export async function getSkyMap(name: string): Promise<Uint8Array | null> {
+/** A stored map's bytes as a Blob (read in the map worker), or null when this browser does not hold it. */
+export async function getSkyMap(name: string): Promise<Blob | null> {
   const db = await open();
   try {
     const v = await new Promise<unknown>((resolve, reject) => {
@@ -47,8 +47,8 @@ export async function getSkyMap(name: string): Promise<Uint8Array | null> {
       req.onsuccess = () => resolve(req.result);
       req.onerror = () => reject(req.error);
     });
-    if (v instanceof Blob) return new Uint8Array(await v.arrayBuffer());
-    if (v instanceof ArrayBuffer) return new Uint8Array(v);
+    if (v instanceof Blob) return v;
+    if (v instanceof ArrayBuffer) return new Blob([v]);
     return null;
   } finally {
     db.close();
