@@ -6,6 +6,7 @@ import type { PlanResult, Scenario } from '../core/types';
 import type { FromWorker, ToWorker } from './workerHost';
 import type { LoadedSkyMap } from '../core/sky/model';
 import { CancelledError } from './runPlan';
+import { galaxyNodesFor } from '../core/sky/model';
 
 export { CancelledError };
 
@@ -23,6 +24,8 @@ export interface BrowserEngine {
   run(scenario: Scenario, onProgress?: (stage: string, fraction: number) => void, skyMaps?: LoadedSkyMap[]): Promise<PlanResult>;
   cancel(): void;
   dispose(): void;
+  /** whether the current worker holds the galaxy sky model's map at this node frequency (built by a finished run) */
+  skyMapBuilt(nodeMHz: number): boolean;
 }
 
 function defaultWorker(): WorkerLike {
@@ -41,6 +44,9 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
   let pending: Pending | null = null;
   let nextId = 1;
   let disposed = false;
+  // node frequencies of the galaxy model's maps the current worker has built (its cache; lost with the worker)
+  let built = new Set<number>();
+  let runningScenario: Scenario | null = null;
 
   const settle = (e: Error | null, r?: PlanResult): void => {
     const p = pending;
@@ -54,6 +60,7 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
     if (!worker) return;
     const w = worker;
     worker = null;
+    built = new Set();
     w.onmessage = w.onerror = w.onmessageerror = null;
     w.terminate();
   };
@@ -64,7 +71,11 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
       const m = ev.data as FromWorker;
       if (!pending || !m || m.id !== pending.id) return; // a superseded run's late message
       if (m.type === 'progress') pending.onProgress?.(m.stage, m.fraction);
-      else if (m.type === 'result') settle(null, m.result);
+      else if (m.type === 'result') {
+        const sc = runningScenario;
+        if (sc && (sc.sky?.model ?? 'galaxy') === 'galaxy') for (const f of sc.telescope.frequencies_mhz) for (const n of galaxyNodesFor(f)) built.add(n);
+        settle(null, m.result);
+      }
       else if (m.type === 'error') {
         const err = m.name === 'CancelledError' ? new CancelledError(m.message) : new Error(m.message);
         if (m.name !== 'CancelledError') err.name = m.name === 'Error' ? 'Error' : m.name;
@@ -92,6 +103,7 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
       const id = nextId++;
       return new Promise<PlanResult>((resolve, reject) => {
         pending = { id, resolve, reject, onProgress };
+        runningScenario = scenario;
         try {
           (worker ?? spawn()).postMessage({ type: 'run', id, scenario, ...(skyMaps && skyMaps.length ? { skyMaps } : {}) });
         } catch (e) {
@@ -111,6 +123,7 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
         }
       }
     },
+    skyMapBuilt: (f) => built.has(f),
     dispose() {
       disposed = true;
       kill();

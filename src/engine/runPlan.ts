@@ -185,13 +185,15 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   const maskFree = !s.constraints.horizon_mask || s.constraints.horizon_mask.every((p) => p[1] <= 0);
   const tGrids: ReturnType<typeof antennaTempGrid>[][] = [];
   const skyK: NonNullable<PlanResult['sky_k']> = [];
+  // the sky model's maps for every frequency in one pass (the galaxy model walks each ray once for all)
+  await d.run('antenna temperature', sky.prepareAll(freqsMhz), 0, 0.15);
   for (let k = 0; k < freqsMhz.length; k++) {
-    const g = await d.run('antenna temperature', sky.prepare(freqsMhz[k]), (0.3 * k) / freqsMhz.length, (0.3 * (k + 0.8)) / freqsMhz.length);
+    const g = await d.run('antenna temperature', sky.prepare(freqsMhz[k]), 0.15 + (0.15 * k) / freqsMhz.length, 0.15 + (0.15 * (k + 0.8)) / freqsMhz.length);
     skyK.push({ nside: g.nside, coordsys: g.coordsys, values: g.values });
     const row = [];
     for (let gi = 0; gi < tSegs.length; gi++) {
       row.push(antennaTempGrid(antennaBeam(s, freqsMhz[k], gi), g, { maskFree }));
-      await d.maybeTurn('antenna temperature', (0.3 * (k + 0.8 + (0.2 * (gi + 1)) / tSegs.length)) / freqsMhz.length);
+      await d.maybeTurn('antenna temperature', 0.15 + (0.15 * (k + 0.8 + (0.2 * (gi + 1)) / tSegs.length)) / freqsMhz.length);
     }
     tGrids.push(row);
   }

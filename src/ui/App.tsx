@@ -83,7 +83,8 @@ export function App() {
 
   const parsed = useMemo(() => parseScenario(draftToCandidate(draft)), [draft]);
   const scenario: Scenario | null = parsed.ok ? parsed.scenario : null;
-  const estimate = useMemo(() => (scenario ? estimateRun(scenario) : null), [scenario]);
+  // the estimate counts the sky model's build while the plan worker has not built it yet
+  const estimate = useMemo(() => (scenario ? estimateRun(scenario, { skyMapBuilt: engine.skyMapBuilt }) : null), [scenario, engine.skyMapBuilt, engine.result]); // eslint-disable-line react-hooks/exhaustive-deps
 
   // the user's sky maps: bytes in IndexedDB by file name, read maps in memory
   const [skyLoaded, setSkyLoaded] = useState<Record<string, HealpixMap>>({});

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { RUN_LIMITS, describeEstimate, estimateRun } from '../../src/core/limits';
+import { RUN_LIMITS, SKY_BUILD_BASE_S, SKY_BUILD_PER_MAP_S, describeEstimate, estimateRun } from '../../src/core/limits';
 import { DEMO_SCENARIO } from '../../src/core/demo';
 import { sampleCount, stepMin } from '../../src/core/time';
 import type { Scenario } from '../../src/core/types';
@@ -62,6 +62,42 @@ describe('estimateRun', () => {
 
   it('describes an estimate in one line', () => {
     expect(describeEstimate(estimateRun(withSpan(DEMO_SCENARIO, '2031-03-02T00:00:00Z', 10)))).toMatch(/^144 samples at 10 min, about \d+ MB, about [\d.]+ s$/);
+  });
+});
+
+describe('estimateRun counts the sky model build while its cache is cold', () => {
+  // The galaxy model is integrated at node frequencies 10^(n/20) MHz and
+  // interpolated between the two around each frequency: 10 MHz is a node
+  // itself (n = 20), 20 MHz lies between n = 26 (19.95 MHz) and n = 27 (22.39
+  // MHz): three maps in all (worked out by hand here).
+  const s: Scenario = { ...DEMO_SCENARIO, telescope: { ...DEMO_SCENARIO.telescope, frequencies_mhz: [10, 20] }, sky: { model: 'galaxy' } };
+
+  it('adds the build of the maps not yet built, and nothing once they are', () => {
+    const cold = estimateRun(s, { skyMapBuilt: () => false });
+    expect(cold.terms.sky_maps_to_build).toBe(3);
+    expect(cold.terms.sky_build_s).toBeCloseTo(SKY_BUILD_BASE_S + 3 * SKY_BUILD_PER_MAP_S, 12);
+    const warm = estimateRun(s, { skyMapBuilt: () => true });
+    expect(warm.terms.sky_maps_to_build).toBe(0);
+    expect(warm.terms.sky_build_s).toBe(0);
+    // the estimate is the sum of its terms, so the cold one is larger by exactly the build
+    for (const e of [cold, warm]) expect(e.seconds_estimate).toBeCloseTo(e.terms.base_s + e.terms.samples_s + e.terms.pixels_s + e.terms.sky_build_s, 12);
+    expect(cold.seconds_estimate - warm.seconds_estimate).toBeCloseTo(cold.terms.sky_build_s, 12);
+    // only the 20 MHz pair built (nodes 10^(26/20), 10^(27/20)): the 10 MHz map is still to build
+    const part = estimateRun(s, { skyMapBuilt: (f) => Math.abs(f - 10) > 1e-9 });
+    expect(part.terms.sky_maps_to_build).toBe(1);
+  });
+
+  it('a uniform sky or the user\'s maps need no build', () => {
+    expect(estimateRun({ ...s, sky: { model: 'uniform' } }, { skyMapBuilt: () => false }).terms.sky_build_s).toBe(0);
+  });
+
+  it('by default asks this process\'s cache: cold first, nothing to build after a run built the maps', async () => {
+    const fresh: Scenario = { ...s, telescope: { ...s.telescope, frequencies_mhz: [7.3] } }; // between nodes 17 and 18, used by no other test here
+    expect(estimateRun(fresh).terms.sky_maps_to_build).toBe(2);
+    const { skyModelFor } = await import('../../src/core/sky/model');
+    const { drain } = await import('../../src/core/types');
+    drain(skyModelFor(fresh.sky).prepareAll([7.3]));
+    expect(estimateRun(fresh).terms.sky_maps_to_build).toBe(0);
   });
 });
 

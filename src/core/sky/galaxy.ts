@@ -29,7 +29,7 @@
 // (tests/reference/sky-models.test.ts measures it). Left out: discrete
 // sources, loops and spurs, the local bubble, the spiral arms, HII regions.
 
-import { nside2npix, pix2vecRingInto } from '../healpix';
+import { nside2npix, pix2vecRingInto, ringStartAndCount } from '../healpix';
 import { T_CMB_K } from './constants';
 import { drain, type Stage } from '../types';
 
@@ -89,9 +89,42 @@ export function tauPerEm(freqMHz: number, teK: number): number {
 
 /** Brightness temperature, K, in galactic direction (gx, gy, gz) (x toward l = 0, z toward b = 90). */
 export function galaxyTemperatureGal(gx: number, gy: number, gz: number, freqMHz: number, p: GalaxyParams = GALAXY_PARAMS): number {
-  const spec = Math.pow(freqMHz / 10, p.beta);
-  const kEm = tauPerEm(freqMHz, p.te_k) * p.clumping; // per (n_e^2 pc)
-  let T = 0, tau = 0, s = 0;
+  const out = new Float64Array(1);
+  galaxyTemperaturesGal(gx, gy, gz, lineOfSightCoefs([freqMHz], p), out);
+  return out[0];
+}
+
+/** Per-frequency factors of the line-of-sight integral (the emissivity and the free-free opacity scale with frequency as power laws). */
+export interface LineOfSightCoefs {
+  p: GalaxyParams;
+  /** per frequency: synchrotron spectrum factor (nu/10 MHz)^beta, opacity per (n_e^2 pc), T_eg + T_CMB */
+  spec: Float64Array; kEm: Float64Array; back: Float64Array;
+}
+
+export function lineOfSightCoefs(freqsMHz: number[], p: GalaxyParams = GALAXY_PARAMS): LineOfSightCoefs {
+  return {
+    p,
+    spec: Float64Array.from(freqsMHz, (f) => Math.pow(f / 10, p.beta)),
+    kEm: Float64Array.from(freqsMHz, (f) => tauPerEm(f, p.te_k) * p.clumping),
+    back: Float64Array.from(freqsMHz, (f) => extragalacticK(f) + T_CMB_K),
+  };
+}
+
+// per-frequency running sums of one ray (reused: the integrator allocates nothing per ray)
+let accT = new Float64Array(0), accAtt = new Float64Array(0);
+
+/**
+ * The radiative transfer above along one ray for several frequencies at once:
+ * the path (step sizes, emissivity and electron density at each step) does not
+ * depend on frequency, so it is walked once and each frequency only adds its
+ * own absorption. out[k] = brightness temperature (K) at frequency k.
+ */
+export function galaxyTemperaturesGal(gx: number, gy: number, gz: number, c: LineOfSightCoefs, out: Float64Array): void {
+  const p = c.p, nf = c.spec.length, spec = c.spec, kEm = c.kEm;
+  if (accT.length < nf) { accT = new Float64Array(nf); accAtt = new Float64Array(nf); }
+  const T = accT, att = accAtt;
+  for (let k = 0; k < nf; k++) { T[k] = 0; att[k] = 1; }
+  let s = 0;
   const az = Math.abs(gz);
   for (let step = 0; step < 400; step++) {
     const ds = Math.min(0.5, 0.02 + 0.03 * s);
@@ -99,18 +132,23 @@ export function galaxyTemperatureGal(gx: number, gy: number, gz: number, freqMHz
     const x = -R_SUN_KPC + sm * gx, y = sm * gy, z = sm * az;
     const R = Math.sqrt(x * x + y * y);
     if (z > 12 || R > 30) break;
-    const eps = p.thin_k_per_kpc * spec * (
+    // emissivity at 10 MHz times ds, and n_e^2 ds in pc cm^-6
+    const eps0ds = p.thin_k_per_kpc * ds * (
       Math.exp(-(R - R_SUN_KPC) / p.thin_hr_kpc - z / p.thin_hz_kpc) +
       p.thick_ratio * Math.exp(-(R - R_SUN_KPC) / p.thick_hr_kpc - z / p.thick_hz_kpc));
     const ne = electronDensity(R, z);
-    const dtau = kEm * ne * ne * ds * PC_PER_KPC;
-    const att = Math.exp(-tau);
-    const f = dtau < 1e-8 ? 1 - dtau / 2 : -Math.expm1(-dtau) / dtau;
-    T += (eps * ds * f + p.te_k * dtau * f) * att;
-    tau += dtau;
+    const em = ne * ne * ds * PC_PER_KPC;
+    for (let k = 0; k < nf; k++) {
+      const dtau = kEm[k] * em;
+      // f = (1 - e^-dtau)/dtau and e^-dtau from one expm1
+      let f: number, e: number;
+      if (dtau < 1e-8) { f = 1 - dtau / 2; e = 1 - dtau; } else { const m = -Math.expm1(-dtau); f = m / dtau; e = 1 - m; }
+      T[k] += (eps0ds * spec[k] * f + p.te_k * dtau * f) * att[k];
+      att[k] *= e;
+    }
     s += ds;
   }
-  return T + (extragalacticK(freqMHz) + T_CMB_K) * Math.exp(-tau);
+  for (let k = 0; k < nf; k++) out[k] = T[k] + c.back[k] * att[k];
 }
 
 /** Working resolution of the galaxy model's cached maps. */
@@ -128,22 +166,57 @@ export function galaxyMapGal(freqMHz: number, nside = GALAXY_NSIDE, p: GalaxyPar
   return drain(galaxyMapGalStage(freqMHz, nside, p));
 }
 
-/** galaxyMapGal as a pipeline stage (it takes about a second per frequency): yields its progress. */
+const cacheKey = (f: number, nside: number, p: GalaxyParams) => `${f}|${nside}|${p === GALAXY_PARAMS ? '' : JSON.stringify(p)}`;
+
+/** Whether galaxyMapGal(freqMHz) is already built (its cost is then nil). */
+export function galaxyMapCached(freqMHz: number, nside = GALAXY_NSIDE, p: GalaxyParams = GALAXY_PARAMS): boolean {
+  return cache.has(cacheKey(freqMHz, nside, p));
+}
+
+/** galaxyMapGal as a pipeline stage: yields its progress. */
 export function* galaxyMapGalStage(freqMHz: number, nside = GALAXY_NSIDE, p: GalaxyParams = GALAXY_PARAMS): Stage<Float32Array> {
-  const key = `${freqMHz}|${nside}|${p === GALAXY_PARAMS ? '' : JSON.stringify(p)}`;
-  const hit = cache.get(key);
-  if (hit) return hit;
-  const npix = nside2npix(nside);
-  const out = new Float32Array(npix);
-  const v = new Float64Array(3);
-  for (let i = 0; i < npix; i++) {
-    pix2vecRingInto(nside, i, v);
-    out[i] = galaxyTemperatureGal(v[0], v[1], v[2], freqMHz, p);
-    if ((i & 1023) === 1023) yield i / npix;
+  return (yield* galaxyMapsGalStage([freqMHz], nside, p))[0];
+}
+
+/**
+ * The maps of several frequencies in one pass over the sky (each ray's path is
+ * walked once for all of them). The model is symmetric under b -> -b and
+ * l -> -l (it depends on |z| and on the galactocentric radius only), so one
+ * quarter of the rays is integrated and mirrored.
+ */
+export function* galaxyMapsGalStage(freqsMHz: number[], nside = GALAXY_NSIDE, p: GalaxyParams = GALAXY_PARAMS): Stage<Float32Array[]> {
+  const todo = [...new Set(freqsMHz.filter((f) => !cache.has(cacheKey(f, nside, p))))];
+  if (todo.length) {
+    const npix = nside2npix(nside);
+    const maps = todo.map(() => new Float32Array(npix));
+    const c = lineOfSightCoefs(todo, p);
+    const t = new Float64Array(todo.length);
+    const v = new Float64Array(3);
+    const nf = todo.length;
+    for (let ring = 1; ring <= 2 * nside; ring++) {
+      const [start, count] = ringStartAndCount(nside, ring);
+      // the ring's mirror in b starts here (the equator is its own mirror)
+      const south = npix - start - count;
+      const shifted = ring < nside || ((ring - nside) & 1) === 0;
+      for (let j = 0; j < count; j++) {
+        // pixel of longitude -l on the same ring
+        const jm = shifted ? count - 1 - j : (count - j) % count;
+        if (jm < j) continue;
+        pix2vecRingInto(nside, start + j, v);
+        galaxyTemperaturesGal(v[0], v[1], v[2], c, t);
+        for (let k = 0; k < nf; k++) {
+          const m = maps[k], x = t[k];
+          m[start + j] = x; m[start + jm] = x; m[south + j] = x; m[south + jm] = x;
+        }
+      }
+      yield ring / (2 * nside);
+    }
+    for (let k = 0; k < nf; k++) {
+      if (cache.size >= CACHE_MAX) cache.delete(cache.keys().next().value!);
+      cache.set(cacheKey(todo[k], nside, p), maps[k]);
+    }
   }
-  if (cache.size >= CACHE_MAX) cache.delete(cache.keys().next().value!);
-  cache.set(key, out);
-  return out;
+  return freqsMHz.map((f) => cache.get(cacheKey(f, nside, p))!);
 }
 
 /** Solid-angle mean of the model over |b| >= bMinDeg (on an nside grid in galactic coordinates). */

@@ -14,7 +14,7 @@
 import type { SkySpec } from '../types';
 import { ICRS_TO_ECL, ICRS_TO_GAL } from '../frames';
 import { T_CMB_K } from './constants';
-import { galaxyMapGalStage, GALAXY_NSIDE } from './galaxy';
+import { galaxyMapGalStage, galaxyMapsGalStage, GALAXY_NSIDE } from './galaxy';
 import { drain, type Stage } from '../types';
 import { uniformSkyK } from './uniform';
 import { interpRingVec } from './interpolate';
@@ -44,7 +44,18 @@ export interface SkyModel {
   at(freqMHz: number): SkyGrid;
   /** the work of `at` as a stage that yields progress (for the engine); its result is what `at` returns */
   prepare(freqMHz: number): Stage<SkyGrid>;
+  /** what `prepare` needs for all these frequencies, built in one pass where that is cheaper (the galaxy model's maps) */
+  prepareAll(freqsMHz: number[]): Stage<void>;
 }
+
+/** The galaxy model's node frequencies (MHz) whose maps the frequency f is interpolated between. */
+export function galaxyNodesFor(f: number): number[] {
+  const n = Math.floor(Math.log10(f) * GALAXY_NODES_PER_DECADE + 1e-9);
+  const fa = Math.pow(10, n / GALAXY_NODES_PER_DECADE);
+  return Math.abs(f / fa - 1) < 1e-12 ? [fa] : [fa, Math.pow(10, (n + 1) / GALAXY_NODES_PER_DECADE)];
+}
+
+
 
 /** A map the CLI or the app has read, matched to `sky.maps[i]` by position. */
 export interface LoadedSkyMap {
@@ -151,12 +162,12 @@ export function skyModelFor(spec: SkySpec | undefined, maps: LoadedSkyMap[] = []
         }),
         // eslint-disable-next-line require-yield
         *prepare(f) { return this.at(f); },
+        // eslint-disable-next-line require-yield
+        *prepareAll() { /* nothing to build ahead */ },
       };
     case 'galaxy': {
       // the model's maps at nodes 1/GALAXY_NODES_PER_DECADE apart in log frequency, and per pixel
       // a power law between the two around f: a new frequency costs no new line-of-sight integration
-      const lo = (f: number) => Math.floor(Math.log10(f) * GALAXY_NODES_PER_DECADE + 1e-9);
-      const node = (n: number) => Math.pow(10, n / GALAXY_NODES_PER_DECADE);
       const combine = (f: number, a: Float32Array, b: Float32Array, fa: number, fb: number): SkyGrid => {
         const out = new Float32Array(a.length);
         const x = Math.log(f / fa) / Math.log(fb / fa);
@@ -169,12 +180,13 @@ export function skyModelFor(spec: SkySpec | undefined, maps: LoadedSkyMap[] = []
         *prepare(f) {
           const hit = cache.get(f);
           if (hit) return hit;
-          const n = lo(f), fa = node(n), fb = node(n + 1);
+          const [fa, fb] = galaxyNodesFor(f);
           const a = yield* galaxyMapGalStage(fa);
-          if (Math.abs(f / fa - 1) < 1e-12) return cached(f, () => skyGrid(f, GALAXY_NSIDE, 'G', a));
+          if (fb === undefined) return cached(f, () => skyGrid(f, GALAXY_NSIDE, 'G', a));
           const b = yield* galaxyMapGalStage(fb);
           return cached(f, () => combine(f, a, b, fa, fb));
         },
+        *prepareAll(fs) { yield* galaxyMapsGalStage([...new Set(fs.flatMap(galaxyNodesFor))]); },
       };
     }
     case 'map': {
@@ -189,6 +201,8 @@ export function skyModelFor(spec: SkySpec | undefined, maps: LoadedSkyMap[] = []
         at: (f) => cached(f, () => skyGrid(f, m0.nside, m0.coordsys, mapModelValues(maps, s.spectral_index, f))),
         // eslint-disable-next-line require-yield
         *prepare(f) { return this.at(f); },
+        // eslint-disable-next-line require-yield
+        *prepareAll() { /* the maps are read; each frequency is a per-pixel scaling */ },
       };
     }
   }

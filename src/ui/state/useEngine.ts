@@ -21,7 +21,7 @@ export interface EngineState {
   lastMs: number | null;
 }
 
-export function useEngine(): EngineState & { run: (s: Scenario, skyMaps?: LoadedSkyMap[]) => void; cancel: () => void } {
+export function useEngine(): EngineState & { run: (s: Scenario, skyMaps?: LoadedSkyMap[]) => void; cancel: () => void; skyMapBuilt: (nodeMHz: number) => boolean } {
   const engineRef = useRef<Engine | null>(null);
   const runId = useRef(0);
   const runningRef = useRef(false);
@@ -106,7 +106,10 @@ export function useEngine(): EngineState & { run: (s: Scenario, skyMaps?: Loaded
   }, [drop]);
 
 
-  return { ...st, run, cancel };
+  // for the run estimate: what the worker has cached (nothing before its first run)
+  const skyMapBuilt = useCallback((f: number) => engineRef.current?.skyMapBuilt(f) ?? false, []);
+
+  return { ...st, run, cancel, skyMapBuilt };
 }
 
 function errText(e: unknown): string {
