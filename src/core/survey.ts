@@ -54,7 +54,11 @@
 // sample), while the Sun/Earth constraints make the usable samples, and so the
 // hit map and the covered sky, differ from site to site anyway.
 
-import { isPlainZenithDish } from './antenna/pointing';
+import { isPlainZenithDish, sampleSegments, segmentsOf } from './antenna/pointing';
+import { antennaBeam } from './antenna/beam';
+import { beamWidthRad } from './antenna';
+import { horizonFrames } from './antenna/frame';
+import { anyAntennaCoverageStage } from './antenna/anyAntennaCoverage';
 import type { BodyName, Scenario, Stage, Track } from './types';
 import { drain } from './types';
 import { BODIES, KM_PER_AU, siteGeometry } from './bodies';
@@ -65,13 +69,18 @@ import {
   EXPOSURE_HIT_PER_FWHM, type BeamProfile, type HitMap,
 } from './coverage';
 import { maskedMedian, SENSITIVITY_DEFAULTS, usableHoursInBand, usableHoursNearCenter } from './stats';
-import { uniformSkyK } from './sky/uniform';
+import { skyModelFor, type LoadedSkyMap, type SkyModel } from './sky/model';
+import { SkyMapError } from './sky/fitsMap';
+import { antennaTempGrid, antennaTempStage, zenithOnlyFrames, type AntennaTempGrid } from './sky/antennaTemp';
+import { tAntSummary } from './sky/tAntSummary';
+import { sysWeightedTrack } from './sky/noise';
+import { frequencyLimitsStage, usableAtAny, usableByFrequency } from './shielding/usableByFrequency';
 import { ICRS_TO_GAL, galDegToVec } from './frames';
 import { maxPixradRad } from './healpix';
 
 const DEG = Math.PI / 180;
 
-export const SURVEY_FORMAT = 'swathe.survey/2';
+export const SURVEY_FORMAT = 'swathe.survey/3';
 export const SURVEY_MIN_STEP_DEG = 1;
 export const SURVEY_MAX_STEP_DEG = 15;
 /** Covered pixels at which the noise median is evaluated (see the header). */
@@ -141,6 +150,8 @@ export interface SurveyOptions {
   noise?: boolean;
   /** Covered pixels the noise median is evaluated at (default NOISE_SAMPLE_PIXELS; more is slower and closer to the plan). */
   noiseSamplePixels?: number;
+  /** The maps of `sky.maps` (sky.model "map"), read by the caller, in that order. */
+  skyMaps?: LoadedSkyMap[];
 }
 
 /** Per-frequency figures, one entry per held site. */
@@ -150,8 +161,10 @@ export interface SurveyFrequencyFigures {
   sky_fraction_covered: Float64Array;
   usable_hours_beam_in_band: Float64Array;
   usable_hours_beam_near_center: Float64Array;
-  /** median radiometer noise over the covered pixels, K; NaN when nothing is covered (as in the plan) or when not computed */
+  /** median radiometer noise over the covered pixels with the sky model's T_sys, K; NaN when nothing is covered (as in the plan) or when not computed */
   noise_median_k: Float64Array;
+  /** median antenna temperature over the usable samples (the sky model through the beam), K; NaN with no usable time */
+  t_ant_median_k: Float64Array;
 }
 
 export interface SurveyResult {
@@ -173,6 +186,10 @@ export interface SurveyResult {
   usable_h_zenith_near_center: Float64Array;
   frequencies: SurveyFrequencyFigures[];
   sensitivity: { bandwidth_mhz: number; receiver_temp_k: number } | null;
+  /** the sky model's label (sky/model.ts), as the plan's summary gives it */
+  sky_model: string;
+  /** which per-site path computed the figures: the zenith dish's shared-sample path, or the plan's stages for any other antenna */
+  path: 'dish' | 'any';
 }
 
 function checkedSites(total: number, list: ArrayLike<number>): Int32Array {
@@ -473,11 +490,66 @@ function* noiseMedianStage(
 // ---------------------------------------------------------------------------
 // The survey
 
+/** Runs a sub-stage, mapping its progress through `at`. */
+function* sub<T>(g: Stage<T>, at: (f: number) => number): Stage<T> {
+  let r = g.next();
+  while (!r.done) { yield at(r.value); r = g.next(); }
+  return r.value;
+}
+
+/** Per-site figures of the general path, in the order of the asked frequencies. */
+interface AnySite {
+  hours: SiteHours;
+  covered: number[];
+  noise: number[];
+  tAnt: number[];
+}
+
+/**
+ * Any antenna but the plain zenith dish, at one site: the plan's own stages
+ * (the track, the usable flags per frequency with every constraint, the
+ * antenna temperature on the shared grids, and anyAntennaCoverageStage, the
+ * stage runPlan runs), so the site's figures are the plan's by construction.
+ */
+function* siteByAnyAntenna(
+  ss: Scenario, which: number[], grids: AntennaTempGrid[][], sens: { bandwidth_mhz: number; receiver_temp_k: number }, wantNoise: boolean,
+): Stage<AnySite> {
+  const track = yield* sub(trackStage(ss, { mode: 'fast' }), (f) => 0.1 * f);
+  const limits = yield* sub(frequencyLimitsStage(track, ss), (f) => 0.1 + 0.05 * f);
+  const freqs = ss.telescope.frequencies_mhz;
+  const byFreq = usableByFrequency(limits.fminMHz, freqs);
+  const usable = usableAtAny(limits.fminMHz, freqs);
+  const h = hoursSummary(track, usable, ss.constraints);
+  const g = galacticSummary(track, usable, ss.map);
+  const frames = horizonFrames(track, ss.site.lon_deg);
+  const segs = segmentsOf(ss);
+  const tAnt = yield* sub(antennaTempStage(frames, grids, segs.length > 1 ? sampleSegments(track, segs) : null, ss.sky?.ground_temp_k), (f) => 0.15 + 0.1 * f);
+  const use = which.map((m) => byFreq[m]);
+  const any = yield* sub(anyAntennaCoverageStage(ss, track, frames, which, use, tAnt.t_ant_k, sens, { noise: wantNoise }), (f) => 0.25 + 0.75 * f);
+  const npix = 12 * ss.map.nside * ss.map.nside;
+  return {
+    hours: {
+      usable: h.usable, sun_down: h.sun_down, earth_down: h.earth_down,
+      zenith_in_band: g.usable_hours_zenith_in_band, zenith_near_center: g.usable_hours_zenith_near_center,
+      beam_in_band: any.frequencies.map((f) => f.inBand), beam_near_center: any.frequencies.map((f) => f.nearCentre),
+    },
+    covered: any.frequencies.map((f) => { let c = 0; for (let q = 0; q < npix; q++) c += f.covered[q]; return c / npix; }),
+    noise: any.frequencies.map((f) => f.noise_median_k),
+    tAnt: which.map((_, j) => tAntSummary(tAnt.t_ant_k[j], use[j]).median),
+  };
+}
+
+/** True when every usable sample keeps its hours under the (T_ref / T_sys)^2 weighting (a uniform sky): the hit map serves as it is. */
+function sameWeights(a: Float64Array, b: Float64Array, usable: Uint8Array): boolean {
+  for (let i = 0; i < a.length; i++) if (usable[i] && a[i] !== b[i]) return false;
+  return true;
+}
+
 /**
  * The survey stage: the sites of the grid held by the shard, in index order.
  * Yields overall progress in [0, 1] (at least every ~50k items of work) and
  * returns typed arrays of the figures. Throws a RangeError naming the option
- * for a bad step, shard or frequency.
+ * or field for a bad step, shard, frequency or sky map.
  */
 export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResult> {
   const grid = surveyGrid(opts.stepDeg);
@@ -489,19 +561,44 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   const noiseTarget = opts.noiseSamplePixels ?? NOISE_SAMPLE_PIXELS;
   if (!(Number.isInteger(noiseTarget) && noiseTarget >= 1)) throw new RangeError(`noiseSamplePixels must be an integer >= 1, got ${noiseTarget}`);
   const held = sites.length;
-  if (!isPlainZenithDish(s)) {
-    throw new RangeError('the site survey covers the zenith-pointing circular dish (gaussian or airy beam at the zenith, one feed, no plan); plan this antenna at one site with swathe plan');
-  }
-  const allBeams = s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m!, s.telescope.beam));
-  const hitNside = hitNsideFor(Math.min(...allBeams.map((b) => b.fwhmRad)));
+  const dish = isPlainZenithDish(s);
+  const mhzOf = (m: number) => s.telescope.frequencies_mhz[m];
+  // the dish path's beam profiles (hit map, covered sky, noise gather); the general path uses the antenna model itself
+  const allBeams = dish ? s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m!, s.telescope.beam)) : [];
+  const hitNside = dish ? hitNsideFor(Math.min(...allBeams.map((b) => b.fwhmRad))) : 0;
   const beams = which.map((m) => allBeams[m]);
-  const halfFwhmDeg = beams.map((b) => b.fwhmRad / DEG / 2);
+  const halfFwhmDeg = which.map((m) => (dish ? allBeams[m].fwhmRad : beamWidthRad(s, mhzOf(m))) / DEG / 2);
   const sens = {
     bandwidth_mhz: s.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz,
     receiver_temp_k: s.telescope.receiver_temp_k ?? SENSITIVITY_DEFAULTS.receiver_temp_k,
   };
-  // the uniform high-latitude sky (sky/uniform.ts) whatever sky.model says: per-site antenna temperature is not computed here
-  const tSys = which.map((m) => uniformSkyK(s.telescope.frequencies_mhz[m]) + sens.receiver_temp_k);
+  // The sky through the beam (the plan's antenna-temperature code): one lazily
+  // filled grid per frequency and pointing segment, shared by every site (a
+  // cell depends on the zenith's direction on the sky, not on the site).
+  let sky: SkyModel;
+  try {
+    sky = skyModelFor(s.sky, opts.skyMaps ?? []);
+  } catch (e) {
+    if (e instanceof SkyMapError) throw new RangeError(e.message);
+    throw e;
+  }
+  const maskFree = !s.constraints.horizon_mask || s.constraints.horizon_mask.every((p) => p[1] <= 0);
+  const nSeg = segmentsOf(s).length;
+  const tGrids: AntennaTempGrid[][] = [];
+  for (const m of which) {
+    let sg;
+    try {
+      sg = yield* sub(sky.prepare(mhzOf(m)), () => 0);
+    } catch (e) {
+      if (e instanceof SkyMapError) throw new RangeError(e.message);
+      throw e;
+    }
+    const row: AntennaTempGrid[] = [];
+    for (let g = 0; g < nSeg; g++) row.push(antennaTempGrid(antennaBeam(s, mhzOf(m), g), sg, { maskFree }));
+    tGrids.push(row);
+  }
+  const symmetric = tGrids.every((row) => row.every((g) => g.nPsi === 1));
+  const groundK = s.sky?.ground_temp_k;
   const nside = s.map.nside;
   const f64 = () => new Float64Array(held);
   const out: SurveyResult = {
@@ -511,11 +608,14 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
     earth_down_h: body === 'earth' ? null : f64(),
     usable_h_zenith_in_band: f64(), usable_h_zenith_near_center: f64(),
     frequencies: which.map((m, f) => ({
-      mhz: s.telescope.frequencies_mhz[m], fwhm_deg: 2 * halfFwhmDeg[f],
+      mhz: mhzOf(m), fwhm_deg: 2 * halfFwhmDeg[f],
       sky_fraction_covered: f64(), usable_hours_beam_in_band: f64(), usable_hours_beam_near_center: f64(),
       noise_median_k: new Float64Array(held).fill(NaN),
+      t_ant_median_k: new Float64Array(held).fill(NaN),
     })),
     sensitivity: wantNoise ? sens : null,
+    sky_model: sky.label,
+    path: dish ? 'dish' : 'any',
   };
   // Sample grids per row (this also checks the span and step, naming the field).
   const rowGrids = Array.from(grid.lat_deg, (lat) => sampleGrid(siteScenario(s, lat, 0)));
@@ -527,6 +627,29 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   let lastRow: RowSamples | null = null;
   let q = 0;
   const progress = (f: number) => Math.min(1, (q + f) / held);
+  if (!dish) {
+    for (; q < held; q++) {
+      const row = Math.floor(sites[q] / grid.nLon);
+      const lat = grid.lat_deg[row], lon = grid.lon_deg[sites[q] % grid.nLon];
+      const r = yield* sub(siteByAnyAntenna(siteScenario(s, lat, lon), which, tGrids, sens, wantNoise), progress);
+      out.lat_deg[q] = lat;
+      out.lon_deg[q] = lon;
+      out.usable_h[q] = r.hours.usable;
+      out.sun_down_h[q] = r.hours.sun_down;
+      if (out.earth_down_h) out.earth_down_h[q] = r.hours.earth_down ?? 0;
+      out.usable_h_zenith_in_band[q] = r.hours.zenith_in_band;
+      out.usable_h_zenith_near_center[q] = r.hours.zenith_near_center;
+      out.frequencies.forEach((fig, f) => {
+        fig.sky_fraction_covered[q] = r.covered[f];
+        fig.usable_hours_beam_in_band[q] = r.hours.beam_in_band[f];
+        fig.usable_hours_beam_near_center[q] = r.hours.beam_near_center[f];
+        if (wantNoise) fig.noise_median_k[q] = r.noise[f];
+        fig.t_ant_median_k[q] = r.tAnt[f];
+      });
+      yield progress(1);
+    }
+    return out;
+  }
   while (q < held) {
     const row = Math.floor(sites[q] / grid.nLon);
     const rg = rowGrids[row];
@@ -572,6 +695,10 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
       out.usable_h_zenith_in_band[q] = hours.zenith_in_band;
       out.usable_h_zenith_near_center[q] = hours.zenith_near_center;
 
+      // antenna temperature of the usable samples (the plan's grids; a symmetric beam needs the zenith alone)
+      const frames = symmetric ? zenithOnlyFrames(track) : horizonFrames(track, lon);
+      const tA = yield* sub(antennaTempStage(frames, tGrids, null, groundK, use), (f) => progress(0.3 * f));
+
       const hs = hitMapStage(track, use, { nside: hitNside });
       let r = hs.next();
       while (!r.done) { yield progress(0.3 + 0.2 * r.value); r = hs.next(); }
@@ -580,6 +707,7 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
         const fig = out.frequencies[f];
         fig.usable_hours_beam_in_band[q] = hours.beam_in_band[f];
         fig.usable_hours_beam_near_center[q] = hours.beam_near_center[f];
+        fig.t_ant_median_k[q] = tAntSummary(tA.t_ant_k[f], use).median;
         const lo = 0.5 + (0.5 * f) / beams.length, span = 0.5 / beams.length;
         const cs = coveredMaskStage(hit, beams[f].fwhmRad / 2, nside);
         let rc = cs.next();
@@ -589,7 +717,15 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
         for (let p = 0; p < covered.length; p++) ncov += covered[p];
         fig.sky_fraction_covered[q] = ncov / covered.length;
         if (wantNoise) {
-          const ns = noiseMedianStage(hit, beams[f], covered, ncov, nside, tSys[f], sens.bandwidth_mhz, noiseTarget);
+          // the plan's noise with the sky (sky/noise.ts): the exposure of the track with each
+          // sample's hours weighted by (T_ref / T_sys)^2; with a uniform sky the weights are the
+          // hours themselves and the unweighted hit map serves
+          const wt = sysWeightedTrack(track, tA.t_ant_k[f], sens.receiver_temp_k, use);
+          let hitW = hit;
+          if (ncov > 0 && !sameWeights(wt.track.weight_h, track.weight_h, use)) {
+            hitW = yield* sub(hitMapStage(wt.track, use, { nside: hitNside }), () => progress(lo + 0.5 * span));
+          }
+          const ns = noiseMedianStage(hitW, beams[f], covered, ncov, nside, wt.tRefK, sens.bandwidth_mhz, noiseTarget);
           let rn = ns.next();
           while (!rn.done) { yield progress(lo + 0.5 * span + 0.5 * span * rn.value); rn = ns.next(); }
           fig.noise_median_k[q] = rn.value;
@@ -642,6 +778,7 @@ export function combineSurveyResults(parts: SurveyResult[], shard: SurveyShard =
       usable_hours_beam_in_band: take((p) => p.frequencies[m].usable_hours_beam_in_band),
       usable_hours_beam_near_center: take((p) => p.frequencies[m].usable_hours_beam_near_center),
       noise_median_k: take((p) => p.frequencies[m].noise_median_k),
+      t_ant_median_k: take((p) => p.frequencies[m].t_ant_median_k),
     })),
   };
 }

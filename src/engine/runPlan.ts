@@ -21,7 +21,7 @@ import { sysWeightedTrack } from '../core/sky/noise';
 import { stepMin } from '../core/time';
 import { macrotask } from './macrotask';
 import { antennaBeam, beamFiguresFor, beamWidthRad, horizonFrames, isPlainZenithDish, sampleSegments, segmentsOf } from '../core/antenna';
-import { spinCoverageStage, type SpinJob } from '../core/antenna/spin';
+import { anyAntennaCoverageStage } from '../core/antenna/anyAntennaCoverage';
 import type { SegmentSummary } from '../core/types';
 import { skyModelFor, type LoadedSkyMap } from '../core/sky/model';
 import { antennaTempGrid, antennaTempStage, type AntennaTempResult } from '../core/sky/antennaTemp';
@@ -273,57 +273,25 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   }
   d.report('exposure', 1);
   } else {
-    // Any other antenna (antenna/spin.ts): usable time binned by the turn about the pole, per plan segment and frequency
-    const frames = horizonFrames(track, s.site.lon_deg);
-    const segs = segmentsOf(s);
-    const segOf = sampleSegments(track, segs);
-    const beamsBySeg = segs.map((_, g) => s.telescope.frequencies_mhz.map((f) => antennaBeam(s, f, g)));
-    const jobs: SpinJob[] = [];
-    for (let g = 0; g < segs.length; g++)
-      for (let k = 0; k < nf; k++) {
-        const uk = usableByFreq[k];
-        jobs.push({ beam: beamsBySeg[g][k], pick: (i: number) => uk[i] === 1 && segOf[i] === g });
-      }
+    // Any other antenna (antenna/anyAntennaCoverage.ts, shared with the survey): usable time binned by the turn about the pole
+    const all = freqsMhz.map((_, k) => k);
     d.report('hits', 0);
-    const spun = await d.run('exposure', spinCoverageStage(track, frames, jobs, nside, s.map.galactic_band_deg, s.map.galactic_center_radius_deg));
-    const acc = s.telescope.frequencies_mhz.map(() => new Float64Array(12 * nside * nside));
-    const cov = s.telescope.frequencies_mhz.map(() => new Uint8Array(12 * nside * nside));
-    const inBand = new Float64Array(nf), nearCentre = new Float64Array(nf);
-    const perSeg: { maps: Float64Array[]; covered: Uint8Array[]; hours: number }[] = [];
-    for (let g = 0; g < segs.length; g++) {
-      const segMaps: Float64Array[] = [], segCov: Uint8Array[] = [];
-      let segHours = 0;
-      for (let k = 0; k < nf; k++) {
-        const r = spun[g * nf + k];
-        for (let q = 0; q < r.map.length; q++) { acc[k][q] += r.map[q]; cov[k][q] |= r.covered[q]; }
-        inBand[k] += r.inBand; nearCentre[k] += r.nearCentre;
-        segHours = Math.max(segHours, r.hours);
-        segMaps.push(r.map); segCov.push(r.covered);
-      }
-      perSeg.push({ maps: segMaps, covered: segCov, hours: segHours });
-    }
+    const any = await d.run('exposure', anyAntennaCoverageStage(s, track, tFrames, all, usableByFreq, tAnt.t_ant_k, sens));
     d.report('hits', 1);
+    const perSeg = any.segments;
     for (let k = 0; k < nf; k++) {
-      const map = Float32Array.from(acc[k]);
-      const covered = cov[k];
-      maps.push(map);
-      coveredMasks.push(covered);
-      const mhz = s.telescope.frequencies_mhz[k];
-      // noise: the same exposure with each sample's hours weighted by (T_ref / T_sys(t))^2 (sky/noise.ts)
-      const wt = sysWeightedTrack(track, tAnt.t_ant_k[k], sens.receiver_temp_k, usableByFreq[k]);
-      const jobsK = jobs.filter((_, q) => q % nf === k);
-      const spunW = await d.run('exposure', spinCoverageStage(wt.track, frames, jobsK, nside, s.map.galactic_band_deg, s.map.galactic_center_radius_deg));
-      const accW = new Float64Array(12 * nside * nside);
-      for (const r of spunW) for (let q = 0; q < r.map.length; q++) accW[q] += r.map[q];
-      const noise = { ...noiseWithSky(Float32Array.from(accW), covered, wt.tRefK, sens.bandwidth_mhz), t_sky_k: tAntFigures[k].median, t_sys_k: wt.tRefK };
-      noiseMaps.push(noise.noise);
+      const a = any.frequencies[k];
+      maps.push(a.map);
+      coveredMasks.push(a.covered);
+      noiseMaps.push(a.noise);
+      const mhz = freqsMhz[k];
       freqs.push({
-        ...frequencySummary({ mhz, fwhmRad: beamWidthRad(s, mhz), exposure: map, covered, track, usable: usableByFreq[k], map: s.map }),
-        usable_hours_beam_in_band: inBand[k],
-        usable_hours_beam_near_center: nearCentre[k],
-        t_sky_k: noise.t_sky_k,
-        t_sys_k: noise.t_sys_k,
-        noise_median_k: noise.noise_median_k,
+        ...frequencySummary({ mhz, fwhmRad: beamWidthRad(s, mhz), exposure: a.map, covered: a.covered, track, usable: usableByFreq[k], map: s.map }),
+        usable_hours_beam_in_band: a.inBand,
+        usable_hours_beam_near_center: a.nearCentre,
+        t_sky_k: tAntFigures[k].median,
+        t_sys_k: a.t_sys_k,
+        noise_median_k: a.noise_median_k,
         usable_hours: usableHoursAt(track, limits.fminMHz, mhz),
         usable_hours_geometric: usableHoursAt(track, limits.fminGeometricMHz, mhz),
         ...(ionosphereNote(s, mhz) ? { usable_note: ionosphereNote(s, mhz)! } : {}),
@@ -332,7 +300,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
       });
     }
     if (s.telescope.pointing_plan?.length) {
-      segmentSummaries = segs.map((g, i) => ({
+      segmentSummaries = tSegs.map((g, i) => ({
         index: i,
         start: s.telescope.pointing_plan![i].start,
         end: s.telescope.pointing_plan![i].end,

@@ -374,6 +374,26 @@ export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFre
   };
 }
 
+/**
+ * Frames that carry only the track's zenith (east and north are not the
+ * site's): enough for grids with one turn bin (nPsi 1, a beam symmetric about
+ * the zenith), whose value depends on the zenith alone; the zenith angles are
+ * the very ones horizonFrames gives, so the values are identical. Used by the
+ * survey's dish path, where rebuilding the local frame per sample would cost
+ * more than the lookup.
+ */
+export function zenithOnlyFrames(track: { n: number; zx: Float64Array; zy: Float64Array; zz: Float64Array }): HorizonFrames {
+  return {
+    n: track.n,
+    at(i, out) {
+      const ux = track.zx[i], uy = track.zy[i], uz = track.zz[i];
+      out[0] = 0; out[1] = 0; out[2] = 0; out[3] = 0; out[4] = 0; out[5] = 0;
+      out[6] = ux; out[7] = uy; out[8] = uz;
+    },
+    pole() { throw new Error('zenithOnlyFrames: no pole (zenith-only frames)'); },
+  };
+}
+
 /** Antenna temperature from the beam's sky mean and the ground it sees. */
 export function withGround(skyMean: number, groundFraction: number, groundTempK: number | undefined): number {
   return groundTempK === undefined ? skyMean : (1 - groundFraction) * skyMean + groundFraction * groundTempK;
@@ -392,19 +412,25 @@ export interface AntennaTempResult {
 
 /**
  * T_ant for every sample and frequency. `grids[k][g]` is frequency k's grid
- * for pointing segment g; `segOf[i]` the sample's segment.
+ * for pointing segment g; `segOf[i]` the sample's segment. With `only`, the
+ * samples not flagged get NaN (the survey needs the usable ones alone).
  */
 export function* antennaTempStage(
   frames: HorizonFrames,
   grids: AntennaTempGrid[][],
   segOf: Uint8Array | null,
   groundTempK: number | undefined,
+  only?: Uint8Array,
 ): Stage<AntennaTempResult> {
   const n = frames.n, nf = grids.length;
   const out = grids.map(() => new Float32Array(n));
   const gf = grids.map((gs) => gs.map((g) => g.quad.groundWeight / (g.quad.groundWeight + g.quad.skyWeight || 1)));
   const f = new Float64Array(9), a = new Float64Array(3);
   for (let i = 0; i < n; i++) {
+    if (only && !only[i]) {
+      for (let k = 0; k < nf; k++) out[k][i] = NaN;
+      continue;
+    }
     frames.at(i, f);
     zenithAngles(f, a);
     const g = segOf ? segOf[i] : 0;
