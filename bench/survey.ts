@@ -6,13 +6,20 @@
 //            sites, one thread; its mean time per site times the number of
 //            sites is the cost of surveying by running plan on every site.
 // Printed: wall and CPU time, the ratio to the plans, and the largest
-// deviation of the sampled sites' survey figures from their plans. The goal
+// deviation of the sampled sites' survey figures from their plans (with the
+// scenario's sky, the galaxy model: T_ant and the noise with the sky). The goal
 // (under 60 s with every figure within 1% of plan) is printed, not asserted.
+// Then, in one thread: the cost of the sky for the dish (a slice of rows with
+// the galaxy sky against the uniform one, where the noise needs no second hit
+// map), and the general path (a dipole over ground, the plan's stages per
+// site) against the panel's fitted estimate (src/ui/survey/surveyEstimate.ts).
 
 import { availableParallelism, loadavg } from 'node:os';
 import type { Scenario } from '../src/core/types';
 import { DEMO_SCENARIO } from '../src/core/demo';
-import { shardSites, surveyGrid, type SurveyResult } from '../src/core/survey';
+import { computeSurvey, shardSites, surveyGrid, type SurveyResult } from '../src/core/survey';
+import { parseScenario } from '../src/core/scenario';
+import { modelMsPerSite, SURVEY_ANY_SETUP_MS } from '../src/ui/survey/surveyEstimate';
 import { runInWorkers } from '../src/cli/survey';
 import { runPlan } from '../src/engine/runPlan';
 
@@ -71,6 +78,8 @@ export async function benchSurvey(log: (line: string) => void = () => {}): Promi
       // NaN in both when nothing is covered; a NaN on one side only counts as a full deviation
       const a = F.noise_median_k[q], b = f.noise_median_k ?? NaN;
       note('noise_median_k', Number.isNaN(a) && Number.isNaN(b) ? 0 : Number.isNaN(a) || Number.isNaN(b) ? 1 : rel(a, b));
+      const ta = F.t_ant_median_k[q], tb = f.t_ant_median_k ?? NaN;
+      note('t_ant_median_k', Number.isNaN(ta) && Number.isNaN(tb) ? 0 : Number.isNaN(ta) || Number.isNaN(tb) ? 1 : rel(ta, tb));
     });
   }
   const planPerSite = planS / sample.length;
@@ -84,12 +93,34 @@ export async function benchSurvey(log: (line: string) => void = () => {}): Promi
   say(`  largest deviation from plan over the ${sample.length} sampled sites (relative): ${Object.entries(worst).map(([k, v]) => `${k} ${v.toExponential(1)}`).join(', ')}`);
   const ok = surveyS < 60 && maxDev < 0.01;
   say(`  goal (5-deg Moon survey, 2 years, 4 frequencies, < 60 s, every figure within 1% of plan): ${surveyS.toFixed(1)} s, largest deviation ${(100 * maxDev).toFixed(3)}% -> ${ok ? 'met' : 'NOT met'} on this run`);
+
+  // The sky's cost on the dish path: three latitude rows (216 sites), one thread, galaxy against uniform.
+  const rows = Int32Array.from({ length: 3 * grid.nLon }, (_, i) => (12 + 6 * Math.floor(i / grid.nLon)) * grid.nLon + (i % grid.nLon));
+  const timed = (sc: Scenario) => { const c = cpuS(); computeSurvey(sc, { stepDeg: STEP_DEG, sites: rows }); return cpuS() - c; };
+  const galaxyCpu = timed(s), uniformCpu = timed({ ...s, sky: { model: 'uniform' } }), noSkyNoise = (() => { const c = cpuS(); computeSurvey(s, { stepDeg: STEP_DEG, sites: rows, noise: false }); return cpuS() - c; })();
+  say(`  dish, ${rows.length} sites of 3 rows, one thread: galaxy sky ${(1000 * galaxyCpu / rows.length).toFixed(1)} ms CPU a site, uniform sky ${(1000 * uniformCpu / rows.length).toFixed(1)} ms, no noise ${(1000 * noSkyNoise / rows.length).toFixed(1)} ms (the sky costs x${(galaxyCpu / uniformCpu).toFixed(2)})`);
+
+  // The general path: a dipole over ground on the Moon, 60 days, nside 32, one frequency, 48 sites of a 15-deg grid.
+  const dp = parseScenario({
+    format: 'swathe.scenario/1', name: 'bench: invented lunar dipole', site: { body: 'moon', lat_deg: 0, lon_deg: 0 },
+    span: { start: '2031-03-01T00:00:00Z', end: '2031-04-30T00:00:00Z', step_min: null },
+    telescope: { frequencies_mhz: [8, 30], beam: { model: 'dipole', length_m: 5, height_m: 1.5 } }, map: { nside: 32 },
+  });
+  if (!dp.ok) throw new Error('bench dipole scenario invalid');
+  const dSites = Array.from({ length: 48 }, (_, i) => 6 * i + 1);
+  const cg = cpuS();
+  computeSurvey(dp.scenario, { stepDeg: 15, sites: dSites, frequenciesMhz: [8] });
+  const generalS = cpuS() - cg;
+  const estS = (dSites.length * modelMsPerSite(dp.scenario) + SURVEY_ANY_SETUP_MS) / 1000;
+  say(`  general path (lunar dipole over ground, 60 days, nside 32, 1 frequency, 48 sites, one thread): ${generalS.toFixed(1)} s CPU (${(1000 * generalS / dSites.length).toFixed(0)} ms a site with the set-up); the panel's estimate ${estS.toFixed(1)} s (x${(generalS / estS).toFixed(2)})`);
   return {
     lines,
     result: {
       name: 'survey: 5-deg Moon grid, demo instrument, 2 years, 4 frequencies',
       sites: grid.count, jobs, load_average: load0, survey_s: surveyS, survey_cpu_s: surveyCpu, plan_s_per_site: planPerSite,
       plans_all_s: plansAllS, ratio: plansAllS / surveyS, max_rel_dev: maxDev, deviations: worst, sample_sites: sample, goal_met: ok,
+      dish_rows_ms_per_site: { galaxy: (1000 * galaxyCpu) / rows.length, uniform: (1000 * uniformCpu) / rows.length, no_noise: (1000 * noSkyNoise) / rows.length },
+      general_path: { sites: dSites.length, cpu_s: generalS, estimate_s: estS },
     },
   };
 }

@@ -3,7 +3,8 @@
 // on this machine.
 
 import { mkdirSync, statSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
+import { readSkyMaps } from './skyMaps';
 import { parseArgs } from 'node:util';
 import { prepareOutDir } from './outDir';
 import { Worker } from 'node:worker_threads';
@@ -25,8 +26,9 @@ export const SURVEY_HELP = `Usage: swathe survey SCENARIO.json --step-deg S --ou
 Computes, for every site of a latitude/longitude grid over the scenario's body
 (cell centres: rows at -90 + (i + 1/2) * 180/nLat, columns at -180 + (j + 1/2) * 360/nLon,
 nLat = ceil(180/S), nLon = ceil(360/S)), what \`swathe plan\` reports for that
-site: sky fraction covered, usable hours, usable hours with the beam on the
-galactic band, median noise, per frequency. Writes DIR/survey.csv, or with
+site, for any antenna: sky fraction covered, usable hours, usable hours with the
+beam on the galactic band, median antenna temperature and median noise with the
+scenario's sky model, per frequency. Writes DIR/survey.csv, or with
 --shard I/N, DIR/survey.shard-I-of-N.csv (join the shards with swathe merge).
 
 Options:
@@ -36,7 +38,7 @@ Options:
                         default all. The sample step still follows all of them, as in a plan
   --shard I/N           compute only shard I of N (1-based): sites k with k mod N = I-1
   --jobs J              worker threads on this machine, 1 to 64 (default 1)
-  --no-noise            skip the median noise (about a third faster; its columns stay empty)
+  --no-noise            skip the median noise (faster; its columns stay empty)
   --progress            show progress on stderr even when it is not a terminal
   --quiet               no progress, nothing on stdout
   -h, --help            show this help
@@ -226,8 +228,11 @@ export async function surveyCommand(argv: string[], io: CliIo): Promise<number> 
   const outDir = resolve(io.cwd, a.out);
   prepareOutDir(outDir, a.out);
 
+  // sky maps (sky.model "map"): paths relative to the scenario file, as for swathe plan
+  const skyMaps = readSkyMaps(scenario, dirname(resolve(io.cwd, a.scenarioPath)));
+
   const sites = shardSites(grid.count, a.shard);
-  const opts = { stepDeg: a.stepDeg, shard: a.shard, sites, frequenciesMhz: a.frequencies, noise: a.noise };
+  const opts = { stepDeg: a.stepDeg, shard: a.shard, sites, frequenciesMhz: a.frequencies, noise: a.noise, ...(skyMaps ? { skyMaps } : {}) };
   // the time left is measured from the sites done so far (issue 9 item 9)
   const progress = progressReporter(io, !a.quiet && (io.errIsTTY || a.progress), Date.now, { timeLeft: true });
   const report = (f: number) => progress.report(`survey ${sites.length} sites`, f);

@@ -1,4 +1,18 @@
-// Site survey (issue 5 item 1).
+// Site survey (issue 5 item 1; any antenna: issue 11 item 6; T_ant and noise
+// with the sky: issue 12 item 6).
+//
+// Two per-site paths:
+//  - the plain zenith dish (antenna/pointing.ts isPlainZenithDish): the
+//    shared-sample path described below;
+//  - every other antenna (elliptical, dipole, pattern, a tilted boresight,
+//    feeds, a pointing plan): the plan's own stages per site (track, usable
+//    flags per frequency, antenna temperature, antenna/anyAntennaCoverage.ts),
+//    so its figures are the plan's bit for bit (tests/unit/survey-any.test.ts).
+//    It costs about a plan per site; only the sky grids are shared.
+// On both, the antenna temperature comes from the plan's grids of the
+// beam-weighted sky (sky/antennaTemp.ts), one per frequency and pointing
+// segment, filled lazily and shared by every site (a cell depends on where the
+// zenith points on the sky, not on the site).
 //
 // Figures of merit for a grid of sites over the body, each computed with the
 // stages and definitions a plan uses (swathe.summary/1), so that every site's
@@ -31,8 +45,15 @@
 //    is covered when the centroid of a fine hit pixel lies within FWHM/2 of its
 //    centre; its grouping of about 2.5 output pixels was measured 2.5x faster
 //    at nside 128 than grouping by the radius).
-//  - The median noise (radiometer equation, stats.ts) needs the exposure at
-//    the covered pixels; the survey evaluates it with the plan's arithmetic
+//  - The antenna temperature is computed at the usable samples only (the
+//    median and the noise read no others); a beam symmetric about the zenith
+//    needs only the zenith's angles (zenithOnlyFrames), the very ones the
+//    plan's frames give.
+//  - The median noise (radiometer equation with T_sys = T_ant + receiver,
+//    sky/noise.ts) needs the exposure of the track with each sample's hours
+//    weighted by (T_ref / T_sys)^2 at the covered pixels: a second hit map of
+//    those weights (with a uniform sky the weights are the hours and the first
+//    hit map serves). The survey evaluates it with the plan's arithmetic
 //    (hit map degraded to FWHM/6, centroids, tabulated beam, cutoff), gathered
 //    at every m-th covered pixel in RING order (m = floor(covered /
 //    NOISE_SAMPLE_PIXELS), at least 1: below 2 x NOISE_SAMPLE_PIXELS covered
@@ -71,7 +92,7 @@ import {
 import { maskedMedian, SENSITIVITY_DEFAULTS, usableHoursInBand, usableHoursNearCenter } from './stats';
 import { skyModelFor, type LoadedSkyMap, type SkyModel } from './sky/model';
 import { SkyMapError } from './sky/fitsMap';
-import { antennaTempGrid, antennaTempStage, zenithOnlyFrames, type AntennaTempGrid } from './sky/antennaTemp';
+import { antennaTempGrid, antennaTempStage, withGround, zenithOnlyFrames, type AntennaTempGrid } from './sky/antennaTemp';
 import { tAntSummary } from './sky/tAntSummary';
 import { sysWeightedTrack } from './sky/noise';
 import { frequencyLimitsStage, usableAtAny, usableByFrequency } from './shielding/usableByFrequency';
@@ -585,6 +606,8 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   const maskFree = !s.constraints.horizon_mask || s.constraints.horizon_mask.every((p) => p[1] <= 0);
   const nSeg = segmentsOf(s).length;
   const tGrids: AntennaTempGrid[][] = [];
+  // a uniform sky: T_ant is the sky's value (with the ground's share) at every sample, no lookup needed
+  const constK: (number | undefined)[] = [];
   for (const m of which) {
     let sg;
     try {
@@ -596,7 +619,9 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
     const row: AntennaTempGrid[] = [];
     for (let g = 0; g < nSeg; g++) row.push(antennaTempGrid(antennaBeam(s, mhzOf(m), g), sg, { maskFree }));
     tGrids.push(row);
+    constK.push(sg.constant);
   }
+  const uniformSky = constK.every((c) => c !== undefined);
   const symmetric = tGrids.every((row) => row.every((g) => g.nPsi === 1));
   const groundK = s.sky?.ground_temp_k;
   const nside = s.map.nside;
@@ -696,8 +721,22 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
       out.usable_h_zenith_near_center[q] = hours.zenith_near_center;
 
       // antenna temperature of the usable samples (the plan's grids; a symmetric beam needs the zenith alone)
-      const frames = symmetric ? zenithOnlyFrames(track) : horizonFrames(track, lon);
-      const tA = yield* sub(antennaTempStage(frames, tGrids, null, groundK, use), (f) => progress(0.3 * f));
+      let tA: { t_ant_k: Float32Array[] };
+      if (uniformSky) {
+        // the plan's grid of a constant sky holds that constant (to rounding, below float32's)
+        tA = {
+          t_ant_k: tGrids.map((row, f) => {
+            const q0 = row[0].quad, gf = q0.groundWeight / (q0.groundWeight + q0.skyWeight || 1);
+            const v = withGround(constK[f]!, gf, groundK);
+            const a = new Float32Array(track.n);
+            for (let i = 0; i < a.length; i++) a[i] = use[i] ? v : NaN;
+            return a;
+          }),
+        };
+      } else {
+        const frames = symmetric ? zenithOnlyFrames(track) : horizonFrames(track, lon);
+        tA = yield* sub(antennaTempStage(frames, tGrids, null, groundK, use), (f) => progress(0.3 * f));
+      }
 
       const hs = hitMapStage(track, use, { nside: hitNside });
       let r = hs.next();

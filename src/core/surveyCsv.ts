@@ -1,11 +1,11 @@
-// The survey's files (swathe.survey/2), their shards and their merge.
+// The survey's files (swathe.survey/3), their shards and their merge.
 //
 // A survey is two files side by side:
 //   survey.csv   the column names on line 1, then one row per site in
 //                grid-index order (no comment lines: spreadsheets, pandas and
 //                astropy read it with default settings);
 //   survey.json  what the CSV holds: format, body, grid, span, nside,
-//                frequencies, sensitivity inputs, the column names, the shard
+//                frequencies, sensitivity inputs, the sky model, the column names, the shard
 //                (null when whole) and a fingerprint of the scenario
 //                (everything but the site), so shards of different runs are
 //                never merged together.
@@ -13,20 +13,25 @@
 // Columns (stable order): site, lat_deg, lon_deg, then sky_fraction_covered_<f>mhz
 // per frequency, usable_h, usable_h_beam_in_band_<f>mhz, noise_median_k_<f>mhz,
 // sun_down_h, earth_down_h, usable_h_zenith_in_band, usable_h_zenith_near_center,
-// usable_h_beam_near_center_<f>mhz (<f> as JavaScript prints the number, like
-// coverage.csv). Numbers are fixed-format: degrees 6 decimals, hours 3, sky
-// fractions 7, noise 6 significant digits; an empty cell means no value (noise
-// where no pixel is covered, noise not computed: sensitivity null in the
-// JSON, earth_down_h on the Earth).
+// usable_h_beam_near_center_<f>mhz, t_ant_median_k_<f>mhz (<f> as JavaScript
+// prints the number, like coverage.csv). Numbers are fixed-format: degrees 6
+// decimals, hours 3, sky fractions 7, noise and antenna temperature 6
+// significant digits; an empty cell means no value (noise where no pixel is
+// covered, noise not computed: sensitivity null in the JSON, T_ant with no
+// usable time, earth_down_h on the Earth). Version 3 added the T_ant column
+// and the sky model (the noise now uses it; version 2's used the uniform sky).
 // Merged shards are byte for byte the unsharded CSV: every row is formatted
 // from its own site's figures alone. Version 1 (the same CSV after a "#
-// swathe.survey/1 ..." line, and "# shard I/N" in a shard) is still merged.
+// swathe.survey/1 ..." line, and "# shard I/N" in a shard) and version 2 are
+// still merged (each with its own kind).
 
 import type { Scenario } from './types';
 import { SURVEY_FORMAT, type SurveyResult } from './survey';
 
 /** The first survey format: metadata on a leading comment line of the CSV (read by merge only). */
 export const SURVEY_FORMAT_V1 = 'swathe.survey/1';
+/** The second format: as the third, without the T_ant column and sky model (read by merge only). */
+export const SURVEY_FORMAT_V2 = 'swathe.survey/2';
 
 function fnv32(text: string, seed: number): number {
   let h = seed >>> 0;
@@ -55,12 +60,13 @@ export function surveyColumns(mhz: number[]): string[] {
     ...per('noise_median_k'),
     'sun_down_h', 'earth_down_h', 'usable_h_zenith_in_band', 'usable_h_zenith_near_center',
     ...per('usable_h_beam_near_center'),
+    ...per('t_ant_median_k'),
   ];
 }
 
 /** survey.json: what the CSV beside it holds. */
 export interface SurveyMeta {
-  format: typeof SURVEY_FORMAT;
+  format: typeof SURVEY_FORMAT | typeof SURVEY_FORMAT_V2;
   /** the CSV file this describes (its name only) */
   csv: string;
   name: string;
@@ -71,6 +77,8 @@ export interface SurveyMeta {
   frequencies_mhz: number[];
   /** the radiometer inputs of noise_median_k; null when the noise was not computed */
   sensitivity: { bandwidth_mhz: number; receiver_temp_k: number } | null;
+  /** the sky model behind t_ant_median_k and noise_median_k (absent in version 2, which used the uniform sky) */
+  sky_model?: string;
   scenario_fingerprint: string;
   columns: string[];
   /** this file's part of a sharded survey (1-based index), null for a whole survey */
@@ -94,6 +102,7 @@ export function surveyMeta(s: Scenario, r: SurveyResult, csvName: string, shard?
     nside: s.map.nside,
     frequencies_mhz: mhz,
     sensitivity: r.sensitivity ? { bandwidth_mhz: r.sensitivity.bandwidth_mhz, receiver_temp_k: r.sensitivity.receiver_temp_k } : null,
+    sky_model: r.sky_model,
     scenario_fingerprint: scenarioFingerprint(s),
     columns: surveyColumns(mhz),
     shard: shard && shard.count > 1 ? { index: shard.index + 1, count: shard.count } : null,
@@ -125,6 +134,7 @@ export function surveyRows(r: SurveyResult): string[] {
     cells.push(fx(r.sun_down_h[q], 3), r.earth_down_h ? fx(r.earth_down_h[q], 3) : '');
     cells.push(fx(r.usable_h_zenith_in_band[q], 3), fx(r.usable_h_zenith_near_center[q], 3));
     for (const f of r.frequencies) cells.push(fx(f.usable_hours_beam_near_center[q], 3));
+    for (const f of r.frequencies) cells.push(sig(f.t_ant_median_k[q], 6));
     out.push(cells.join(',') + '\n');
   }
   return out;
@@ -139,7 +149,7 @@ export type MergeResult =
   | { ok: true; text: string; meta: string | null; sites: number; version: 1 | 2 }
   | { ok: false; message: string };
 
-/** One input of a merge: a survey CSV and, for version 2, the text of the JSON beside it (null when absent). */
+/** One input of a merge: a survey CSV and, for versions 2 and 3, the text of the JSON beside it (null when absent). */
 export interface MergeInput { name: string; text: string; meta: { name: string; text: string } | null }
 
 interface ParsedPart {
@@ -188,7 +198,7 @@ function readMeta(name: string, text: string): SurveyMeta | string {
   }
   const m = v as Partial<SurveyMeta> | null;
   if (!m || typeof m !== 'object' || Array.isArray(m)) return `${name}: must be a ${SURVEY_FORMAT} JSON object`;
-  if (m.format !== SURVEY_FORMAT) return `${name}: format must be "${SURVEY_FORMAT}", got ${JSON.stringify(m.format ?? null)}`;
+  if (m.format !== SURVEY_FORMAT && m.format !== SURVEY_FORMAT_V2) return `${name}: format must be "${SURVEY_FORMAT}" (or "${SURVEY_FORMAT_V2}"), got ${JSON.stringify(m.format ?? null)}`;
   if (!m.grid || !isInt(m.grid.sites, 1)) return `${name}: grid.sites must be a whole number of sites`;
   if (!Array.isArray(m.columns) || m.columns[0] !== 'site' || !m.columns.every((c) => typeof c === 'string')) return `${name}: columns must list the CSV's column names, starting with "site"`;
   if (m.shard !== null && !(m.shard && isInt(m.shard.count, 1) && isInt(m.shard.index, 1) && m.shard.index <= m.shard.count)) {
@@ -233,9 +243,9 @@ export function mergeSurveyFiles(parts: MergeInput[], outName = 'survey.csv'): M
     parsed.push(r);
   }
   const first = parsed[0];
-  const fmt = (v: 1 | 2) => (v === 1 ? SURVEY_FORMAT_V1 : SURVEY_FORMAT);
+  const fmt = (p: ParsedPart) => (p.version === 1 ? SURVEY_FORMAT_V1 : p.meta!.format);
   for (const p of parsed) {
-    if (p.version !== first.version) return { ok: false, message: `${p.name} is ${fmt(p.version)} but ${first.name} is ${fmt(first.version)}; merge files of one run` };
+    if (fmt(p) !== fmt(first)) return { ok: false, message: `${p.name} is ${fmt(p)} but ${first.name} is ${fmt(first)}; merge files of one run` };
     if (p.identity !== first.identity) {
       return { ok: false, message: `${p.name} is from a different survey than ${first.name} (their ${p.version === 1 ? 'first lines' : 'metadata files'} differ)` };
     }
@@ -280,7 +290,8 @@ export function mergeSurveyFiles(parts: MergeInput[], outName = 'survey.csv'): M
 function orderMeta(m: SurveyMeta): SurveyMeta {
   return {
     format: m.format, csv: m.csv, name: m.name, body: m.body, grid: m.grid, span: m.span, nside: m.nside,
-    frequencies_mhz: m.frequencies_mhz, sensitivity: m.sensitivity, scenario_fingerprint: m.scenario_fingerprint,
+    frequencies_mhz: m.frequencies_mhz, sensitivity: m.sensitivity, ...(m.sky_model !== undefined ? { sky_model: m.sky_model } : {}),
+    scenario_fingerprint: m.scenario_fingerprint,
     columns: m.columns, shard: m.shard, note: m.note,
   };
 }

@@ -14,19 +14,21 @@ export const SURVEY_FIGURES = [
   'usable_h_beam_in_band',
   'noise_median_k',
   'usable_h_beam_near_center',
+  't_ant_median_k',
   'usable_h_zenith_in_band',
   'sun_down_h',
   'earth_down_h',
 ] as const;
 export type SurveyFigure = (typeof SURVEY_FIGURES)[number];
 
-const PER_FREQUENCY: ReadonlySet<SurveyFigure> = new Set(['sky_fraction_covered', 'usable_h_beam_in_band', 'noise_median_k', 'usable_h_beam_near_center']);
+const PER_FREQUENCY: ReadonlySet<SurveyFigure> = new Set(['sky_fraction_covered', 'usable_h_beam_in_band', 'noise_median_k', 'usable_h_beam_near_center', 't_ant_median_k']);
 
 const LABELS: Record<SurveyFigure, [string, string]> = {
   sky_fraction_covered: ['Sky fraction covered', ''],
   usable_h: ['Usable hours', 'h'],
   usable_h_beam_in_band: ['Usable hours with the beam on the galactic band', 'h'],
-  noise_median_k: ['Median noise (radiometer equation; lower is better)', 'K'],
+  noise_median_k: ['Median noise with the sky model (radiometer equation; lower is better)', 'K'],
+  t_ant_median_k: ['Median antenna temperature over usable time (the sky model through the beam)', 'K'],
   usable_h_beam_near_center: ['Usable hours with the beam near the galactic centre', 'h'],
   usable_h_zenith_in_band: ['Usable hours with the zenith in the galactic band', 'h'],
   sun_down_h: ['Hours with the Sun down', 'h'],
@@ -61,6 +63,7 @@ function perSite(r: SurveyResult, figure: SurveyFigure, m: number): ArrayLike<nu
     case 'usable_h_beam_in_band': return f.usable_hours_beam_in_band;
     case 'noise_median_k': return f.noise_median_k;
     case 'usable_h_beam_near_center': return f.usable_hours_beam_near_center;
+    case 't_ant_median_k': return f.t_ant_median_k;
     case 'usable_h': return r.usable_h;
     case 'usable_h_zenith_in_band': return r.usable_h_zenith_in_band;
     case 'sun_down_h': return r.sun_down_h;
@@ -102,7 +105,8 @@ export function surveyLayer(r: SurveyResult, figure: SurveyFigure, mhz?: number)
     fraction[k] = Number.isNaN(v) ? 0 : span > 0 ? (v - min) / span : v > 0 ? 1 : 0;
   }
   const [name, unit] = LABELS[figure];
-  const label = `${name}${perF ? ` at ${r.frequencies[m].mhz} MHz` : ''}${unit ? ` (${unit})` : ''}`;
+  // kelvin values are shown with an SI prefix of their own (mK, MK: ui/format.ts), so the title names no unit
+  const label = `${name}${perF ? ` at ${r.frequencies[m].mhz} MHz` : ''}${unit && unit !== 'K' ? ` (${unit})` : ''}`;
   return {
     figure, mhz: perF ? r.frequencies[m].mhz : null, label, unit,
     nLat: g.nLat, nLon: g.nLon, lat_deg: g.lat_deg.slice(), lon_deg: g.lon_deg.slice(),

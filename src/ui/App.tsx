@@ -103,7 +103,7 @@ export function App() {
   );
   const runnable = scenario !== null && estimate !== null && estimate.problems.length === 0 && skyIssues.length === 0;
   // site survey and noise map
-  const survey = useSurvey(runnable ? scenario : null);
+  const survey = useSurvey(runnable ? scenario : null, (s) => loadedFor(s, skyLoadedRef.current));
   const [quantity, setQuantity] = useState<SkyQuantity>('exposure');
   const surveyGlobeLayer = survey.showOnGlobe && survey.layer && survey.done?.scenario.site.body === draft.body ? survey.globeLayer : null;
   const key = runnable ? scenarioToJson(scenario) : null;

@@ -91,8 +91,17 @@ test('a coarse survey runs, colours the globe and the flat map, picks a site and
   await expect(panel.getByTestId('survey-legend')).toContainText(/\d (K|mK|µK|nK)\b/);
   await expect(panel.getByTestId('survey-legend')).not.toContainText(/\de[-+]?\d/); // SI prefixes, not exponents
   await expect(panel.getByTestId('survey-legend')).toContainText('no value');
+  // values carry their SI-prefixed unit, so the title names none
+  await expect(panel.getByTestId('survey-legend').locator('.survey-legend-title')).not.toContainText('(K)');
 
-  // The CSV (swathe.survey/2): the column names first, one row per site in grid order; survey.json says what it holds.
+  // The median antenna temperature (the scenario's sky, galaxy by default): thousands of kelvin at 8 MHz, SI-prefixed.
+  await panel.getByLabel('Figure shown').selectOption('t_ant_median_k');
+  await expect(result).toHaveAttribute('data-figure', 't_ant_median_k');
+  await expect(panel.getByTestId('survey-legend').locator('.survey-legend-title')).toHaveText(/^Median antenna temperature .* at 8 MHz$/);
+  await expect(panel.getByTestId('survey-legend')).toContainText(/\d (K|MK)\b/);
+  expect(Number(await result.getAttribute('data-max'))).toBeGreaterThan(1e4);
+
+  // The CSV (swathe.survey/3): the column names first, one row per site in grid order; survey.json says what it holds.
   const [dl] = await Promise.all([page.waitForEvent('download'), panel.getByRole('button', { name: 'Download survey CSV' }).click()]);
   expect(dl.suggestedFilename()).toMatch(/\.survey-15deg\.csv$/);
   const lines = ['(metadata in the JSON)', ...readFileSync(await dl.path(), 'utf8').trimEnd().split('\n')];
@@ -100,7 +109,7 @@ test('a coarse survey runs, colours the globe and the flat map, picks a site and
   const [dj] = await Promise.all([page.waitForEvent('download'), panel.getByRole('button', { name: 'Download survey JSON' }).click()]);
   expect(dj.suggestedFilename()).toMatch(/\.survey-15deg\.json$/);
   const meta = JSON.parse(readFileSync(await dj.path(), 'utf8'));
-  expect(meta).toMatchObject({ format: 'swathe.survey/2', csv: dl.suggestedFilename(), body: 'moon', frequencies_mhz: [8],
+  expect(meta).toMatchObject({ format: 'swathe.survey/3', csv: dl.suggestedFilename(), body: 'moon', frequencies_mhz: [8],
     grid: { kind: 'cell-centres', step_deg: 15, nlat: 12, nlon: 24, sites: 288 }, columns: surveyColumns([8]), shard: null });
   const rows = lines.slice(2).map((l) => l.split(','));
   expect(rows.length).toBe(grid.count);
@@ -114,6 +123,38 @@ test('a coarse survey runs, colours the globe and the flat map, picks a site and
   const usable = rows.map((r) => Number(r[col('usable_h')]));
   expect(Math.min(...usable)).toBeCloseTo(min, 2);
   expect(Math.max(...usable)).toBeCloseTo(max, 2);
+});
+
+// Any antenna (issue 11 item 6): a dipole over ground runs the plan's own stages at every site.
+const DIPOLE = {
+  ...ONE, name: 'Survey test dipole',
+  span: { start: '2031-03-01T00:00:00Z', end: '2031-03-04T00:00:00Z', step_min: null },
+  telescope: { frequencies_mhz: [8], beam: { model: 'dipole' as const, fwhm_factor: 1.15, length_m: 5, height_m: 1.5 } },
+  map: { ...ONE.map, nside: 16 },
+};
+
+test('a dipole over ground is surveyed (the plan\'s stages per site), with its median antenna temperature', async ({ page }) => {
+  test.setTimeout(300_000);
+  await page.goto(urlFor(DIPOLE));
+  await waitForMap(page);
+  const panel = page.getByTestId('survey-panel');
+  await panel.scrollIntoViewIfNeeded();
+  await panel.getByLabel('Survey step (°)').fill('15');
+  // the estimate says this antenna takes the slower general path
+  await expect(panel.getByTestId('survey-general-note')).toContainText('not the zenith-pointing circular dish');
+  await panel.getByLabel('Figure shown').selectOption('t_ant_median_k');
+  await panel.getByRole('button', { name: 'Run survey' }).click();
+  const result = panel.getByTestId('survey-result');
+  await expect(result).toBeVisible({ timeout: 240_000 });
+  await expect(panel.getByTestId('survey-error')).toHaveCount(0);
+  await expect(result).toHaveAttribute('data-sites', '288');
+  // a wide dipole sees the sky, galaxy model, at 8 MHz: hundreds of thousands of kelvin, varying over the body
+  const min = Number(await result.getAttribute('data-min')), max = Number(await result.getAttribute('data-max'));
+  expect(min).toBeGreaterThan(1e4);
+  expect(max).toBeGreaterThan(min);
+  await expect(panel.getByTestId('survey-legend')).toContainText(/\d (K|MK)\b/);
+  await panel.getByLabel('Figure shown').selectOption('sky_fraction_covered');
+  expect(Number(await result.getAttribute('data-max'))).toBeGreaterThan(0.1); // a wide beam covers much of the sky
 });
 
 test('a survey can be cancelled and the page keeps working', async ({ page }) => {

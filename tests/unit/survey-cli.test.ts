@@ -52,11 +52,13 @@ describe('swathe survey', () => {
     // issue 9 item 10: the CSV starts with its header row; what it holds is in survey.json beside it
     const meta = JSON.parse(readFileSync(join(d, 'all', 'survey.json'), 'utf8'));
     expect(meta).toMatchObject({
-      format: 'swathe.survey/2', csv: 'survey.csv', name: 'survey cli fixture, invented', body: 'moon',
+      format: 'swathe.survey/3', csv: 'survey.csv', name: 'survey cli fixture, invented', body: 'moon',
       grid: { kind: 'cell-centres', step_deg: 15, nlat: 12, nlon: 24, sites: 288 },
       span: { start: '2031-03-01T00:00:00Z', end: '2031-03-11T00:00:00Z' }, nside: 32, frequencies_mhz: [8, 16], shard: null,
     });
     expect(meta.scenario_fingerprint).toMatch(/^[0-9a-f]{16}$/);
+    expect(meta.sky_model).toMatch(/galaxy/i); // the scenario names no sky: the default
+    expect(meta.columns.slice(-2)).toEqual(['t_ant_median_k_8mhz', 't_ant_median_k_16mhz']);
     expect(meta.columns).toEqual(surveyColumns([8, 16]));
     expect(text.startsWith('#')).toBe(false);
     expect(lines[1]).toBe(surveyColumns([8, 16]).join(','));
@@ -123,7 +125,7 @@ describe('swathe survey', () => {
     expect(m1.code, m1.err).toBe(0);
     expect(readFileSync(join(d, 'merged-v1.csv'), 'utf8')).toBe(`${v1Head}\n${text}`);
     expect(existsSync(join(d, 'merged-v1.json'))).toBe(false);
-    await bad([join('v1', 'survey.shard-1-of-3.csv'), shardCsv(2), shardCsv(3)], /is swathe\.survey\/2 but .* is swathe\.survey\/1/);
+    await bad([join('v1', 'survey.shard-1-of-3.csv'), shardCsv(2), shardCsv(3)], /is swathe\.survey\/3 but .* is swathe\.survey\/1/);
     mkdirSync(join(d, 'empty'));
     await bad(['empty'], /no survey\.shard-\*-of-\*\.csv files/);
     await bad(['nothing-here'], /no such file or directory/);

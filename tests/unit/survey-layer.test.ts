@@ -33,13 +33,19 @@ describe('survey layers', () => {
     expect(L.label).toBe('Usable hours (h)');
     const N = surveyLayer(r, 'noise_median_k', 16);
     expect(N.mhz).toBe(16);
-    expect(N.label).toMatch(/at 16 MHz \(K\)/);
+    // kelvin values carry their own SI prefix (ui/format.ts kelvin), so the title names no unit
+    expect(N.label).toMatch(/at 16 MHz$/);
+    expect(N.unit).toBe('K');
+    const T = surveyLayer(r, 't_ant_median_k', 16);
+    expect(T.label).toMatch(/^Median antenna temperature .* at 16 MHz$/);
+    expect(T.values[140]).toBe(Math.fround(r.frequencies[2].t_ant_median_k[2]));
+    expect(T.values[140]).toBeGreaterThan(1000); // the sky at 16 MHz is thousands of kelvin
     expect(N.values[140]).toBe(Math.fround(r.frequencies[2].noise_median_k[2]));
   });
 
   it('list every figure once per frequency where it depends on it; refuse what the result lacks', () => {
     const all = surveyLayers(r);
-    expect(all.length).toBe(4 * 4 + 4); // four per-frequency figures at 4 frequencies; usable, zenith band, Sun, Earth
+    expect(all.length).toBe(5 * 4 + 4); // five per-frequency figures at 4 frequencies; usable, zenith band, Sun, Earth
     expect(new Set(all.map((l) => l.figure))).toEqual(new Set(SURVEY_FIGURES));
     expect(() => surveyLayer(r, 'noise_median_k', 17)).toThrow(/frequency 17 MHz is not in this survey/);
     expect(() => surveyLayer(r, 'bogus' as never)).toThrow(/figure must be one of/);

@@ -31,6 +31,8 @@ function expectSiteMatchesPlan(r: SurveyResult, q: number, p: PlanResult): void 
     expect(rel(F.sky_fraction_covered[q], f.sky_fraction_covered), `${at} ${f.mhz} MHz sky fraction`).toBeLessThan(0.01);
     expect(rel(F.usable_hours_beam_in_band[q], f.usable_hours_beam_in_band), `${at} ${f.mhz} MHz beam in band`).toBeLessThan(0.01);
     expect(rel(F.usable_hours_beam_near_center[q], f.usable_hours_beam_near_center), `${at} ${f.mhz} MHz beam near centre`).toBeLessThan(0.01);
+    if (Number.isNaN(f.t_ant_median_k ?? NaN)) expect(F.t_ant_median_k[q], `${at} ${f.mhz} MHz T_ant`).toBeNaN();
+    else expect(rel(F.t_ant_median_k[q], f.t_ant_median_k!), `${at} ${f.mhz} MHz T_ant`).toBeLessThan(0.01);
     // NaN (null in summary.json) when nothing is covered, in both
     if (Number.isNaN(f.noise_median_k)) expect(F.noise_median_k[q], `${at} ${f.mhz} MHz noise`).toBeNaN();
     else expect(rel(F.noise_median_k[q], f.noise_median_k!), `${at} ${f.mhz} MHz noise`).toBeLessThan(0.01);
@@ -38,8 +40,8 @@ function expectSiteMatchesPlan(r: SurveyResult, q: number, p: PlanResult): void 
 }
 
 async function planOf(s: Scenario, r: SurveyResult, q: number): Promise<PlanResult> {
-  // the survey's noise uses the uniform sky; the plan matches it with sky.model uniform
-  return runPlan({ ...s, site: { body: s.site.body as BodyName, lat_deg: r.lat_deg[q], lon_deg: r.lon_deg[q] }, sky: { model: 'uniform' } });
+  // the same sky as the survey's (the scenario's: galaxy unless it says otherwise)
+  return runPlan({ ...s, site: { body: s.site.body as BodyName, lat_deg: r.lat_deg[q], lon_deg: r.lon_deg[q] } });
 }
 
 describe('survey figures equal a direct plan of each site (within 1%)', () => {
@@ -75,6 +77,7 @@ describe('survey figures equal a direct plan of each site (within 1%)', () => {
       telescope: { aperture_m: 40, frequencies_mhz: [150, 400], beam: { model: 'gaussian', fwhm_factor: 1.15 } },
       constraints: { sun_max_elev_deg: -12, earth_max_elev_deg: null, horizon_mask: null },
       map: { nside: 64, galactic_band_deg: 10, galactic_center_radius_deg: 20 },
+      sky: { model: 'uniform' },
     };
     const sites = [3 * 24 + 2, 6 * 24 + 11, 9 * 24 + 20];
     const r = computeSurvey(s, { stepDeg: 15, sites });

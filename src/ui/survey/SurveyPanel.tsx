@@ -60,7 +60,7 @@ export function SurveyLegend({ layer }: { layer: SurveyLayer }) {
         {missing && (
           <span className="nowrap">
             <span aria-hidden="true" className="survey-swatch" style={{ background: cssRgb(NO_VALUE_RGB) }} /> no value
-            {layer.figure === 'noise_median_k' ? ' (nothing covered)' : ''}
+            {layer.figure === 'noise_median_k' ? ' (nothing covered)' : layer.figure === 't_ant_median_k' ? ' (no usable time)' : ''}
           </span>
         )}
       </div>
@@ -116,7 +116,8 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
       <h2 id="survey-head">Site survey</h2>
       <p className="survey-intro">
         Figures of merit for a grid of sites over {body === 'earth' ? 'the Earth' : body === 'mars' ? 'Mars' : 'the Moon'}, each site
-        computed by the same engine as a plan of that site, with this scenario's span, telescope, constraints and map settings.
+        computed by the same engine as a plan of that site, with this scenario's span, telescope, constraints, map and sky settings,
+        for any antenna model and pointing.
       </p>
       <div className="survey-controls">
         <div className={`field survey-step${step.ok ? '' : ' invalid'}`}>
@@ -165,12 +166,19 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
             {' '}The page stays usable meanwhile.
           </span>
         ) : est ? (
-          <span data-ms-per-site={est.msPerSite} data-wall-s={est.wallSeconds} data-calibrated={est.calibrated ? '1' : '0'}>
+          <span data-ms-per-site={est.msPerSite} data-wall-s={est.wallSeconds} data-calibrated={est.calibrated ? '1' : '0'} data-general={est.general ? '1' : '0'}>
             Estimate: {est.sites.toLocaleString('en-US')} sites ({est.nLat} latitudes × {est.nLon} longitudes, every{' '}
             {Number(est.latStepDeg.toPrecision(3))}° × {Number(est.lonStepDeg.toPrecision(3))}°) × about {Number(est.msPerSite.toPrecision(2))} ms a site
             {' '}({est.calibrated ? 'scaled by the last survey measured in this browser' : 'timed on an idle 2-core machine; a busy computer takes longer'})
             {' '}= {secondsText(est.cpuSeconds)} of computing, {secondsText(est.wallSeconds)} on {survey.workers} worker{survey.workers === 1 ? '' : 's'}.
             {' '}Once it runs, the time left is measured from the first sites.
+            {est.general && (
+              <>
+                {' '}<span data-testid="survey-general-note">This antenna is not the zenith-pointing circular dish, so every site runs the plan&apos;s own
+                stages (track, antenna temperature, exposure), about a plan&apos;s time per site and far slower than the dish&apos;s shared path:
+                try a coarse step first.</span>
+              </>
+            )}
           </span>
         ) : null}
         {survey.cancelled && !survey.running && <span> Survey cancelled; the previous layer is kept.</span>}

@@ -1,5 +1,6 @@
 import type { Scenario } from '../../core/types';
 import { estimateRun } from '../../core/limits';
+import { isPlainZenithDish } from '../../core/antenna/pointing';
 import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core/survey';
 
 // What a survey will cost, stated before it runs and corrected while it runs.
@@ -29,15 +30,44 @@ import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core
 export const SURVEY_MS_PER_SITE_BASE = 1.5;
 export const SURVEY_MS_PER_SITE_PER_SAMPLE: Record<Scenario['site']['body'], number> = { moon: 3.0e-4, mars: 1.1e-4, earth: 1.2e-4 };
 
-/** The fitted time per site (ms, one thread) for a scenario. */
-export function modelMsPerSite(s: Scenario): number {
-  return SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE[s.site.body] * estimateRun(s).samples;
+// Any antenna but the zenith dish runs the plan's own stages at every site
+// (core/survey.ts, the general path): the track, the antenna temperature and
+// the exposure by the body's spin, per site. Measured the same way (Node, one
+// thread, one frequency, CPU time per site, 2026-12-02, this shared 2-core
+// machine at load 12, the marginal time of 48 sites after 6 in one run):
+// a lunar dipole over ground, 60 days, 1,440 samples, nside 32: 35 ms a site;
+// a tilted fan beam on the Earth, 10 days, 35,088 samples, nside 64: 126 ms;
+// a lunar dipole over a year, 8,784 samples, nside 64: 125 ms (48 sites in
+// 9.0 s, less the set-up). The time follows the map's pixels (the spin stage
+// works per pixel, for the exposure and again for the noise), hardly the
+// samples: 5 ms + 2.44 us a pixel. The first sites of a run cost more (543
+// and 667 ms a site over 6): they fill the antenna-temperature grids that
+// later sites share, about 3 s per worker (SURVEY_ANY_SETUP_MS).
+export const SURVEY_ANY_MS_PER_SITE_BASE = 5;
+export const SURVEY_ANY_MS_PER_SITE_PER_PIXEL = 2.44e-3;
+export const SURVEY_ANY_SETUP_MS = 3000;
+
+/** Whether a scenario's survey takes the general path (the plan's stages per site), much slower than the zenith dish's. */
+export function surveyGeneralPath(s: Scenario): boolean {
+  return !isPlainZenithDish(s);
 }
 
-/** Measured time over fitted time, from a finished survey: ms of worker time per site / the fit. */
+/** The fitted time per site (ms, one thread) for a scenario. */
+export function modelMsPerSite(s: Scenario): number {
+  const samples = estimateRun(s).samples;
+  if (surveyGeneralPath(s)) return SURVEY_ANY_MS_PER_SITE_BASE + SURVEY_ANY_MS_PER_SITE_PER_PIXEL * 12 * s.map.nside * s.map.nside;
+  return SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE[s.site.body] * samples;
+}
+
+/** Set-up time per worker (ms): the general path's shared grids; none for the dish. */
+export function setupMs(s: Scenario): number {
+  return surveyGeneralPath(s) ? SURVEY_ANY_SETUP_MS : 0;
+}
+
+/** Measured time over fitted time, from a finished survey: ms of worker time per site (after the set-up) / the fit. */
 export function calibrationRatio(s: Scenario, sites: number, wallMs: number, workers: number): number | null {
   if (!(sites > 0 && wallMs > 0 && workers > 0)) return null;
-  const r = (wallMs * workers) / sites / modelMsPerSite(s);
+  const r = (Math.max(wallMs - setupMs(s), wallMs / 2) * workers) / sites / modelMsPerSite(s);
   return Number.isFinite(r) && r > 0 ? r : null;
 }
 
@@ -74,6 +104,8 @@ export interface SurveyEstimate {
   msPerSite: number;
   /** true when msPerSite is scaled by a survey measured on this computer */
   calibrated: boolean;
+  /** true for an antenna other than the zenith dish (the plan's stages at every site) */
+  general: boolean;
   /** CPU seconds over all sites (one frequency) */
   cpuSeconds: number;
   /** wall seconds with `workers` workers in parallel (no better than the cores allow) */
@@ -84,10 +116,11 @@ export interface SurveyEstimate {
 export function estimateSurvey(s: Scenario, stepDeg: number, workers: number, ratio: number | null = null): SurveyEstimate {
   const g = surveyGrid(stepDeg);
   const msPerSite = modelMsPerSite(s) * (ratio ?? 1);
-  const cpuSeconds = (g.count * msPerSite) / 1000;
+  const w = Math.max(1, workers), setup = setupMs(s) * (ratio ?? 1);
+  const cpuSeconds = (g.count * msPerSite + w * setup) / 1000;
   return {
     sites: g.count, nLat: g.nLat, nLon: g.nLon, latStepDeg: g.lat_step_deg, lonStepDeg: g.lon_step_deg,
-    msPerSite, calibrated: ratio !== null, cpuSeconds, wallSeconds: cpuSeconds / Math.max(1, workers),
+    msPerSite, calibrated: ratio !== null, general: surveyGeneralPath(s), cpuSeconds, wallSeconds: cpuSeconds / w,
   };
 }
 

@@ -1,5 +1,6 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { Scenario } from '../../core/types';
+import type { LoadedSkyMap } from '../../core/sky/model';
 import { createSurveyEngine, type SurveyEngine } from '../../engine/surveyEngine';
 import type { SurveyRun } from '../../engine/runSurvey';
 import type { SurveyFigure, SurveyLayer } from '../../core/surveyLayer';
@@ -29,7 +30,8 @@ export const PANEL_FIGURES: { figure: SurveyFigure; label: string }[] = [
   { figure: 'sky_fraction_covered', label: 'Sky fraction covered' },
   { figure: 'usable_h', label: 'Usable hours' },
   { figure: 'usable_h_beam_in_band', label: 'Usable hours with the beam on the galactic band' },
-  { figure: 'noise_median_k', label: 'Median noise (K)' },
+  { figure: 'noise_median_k', label: 'Median noise (with the sky model)' },
+  { figure: 't_ant_median_k', label: 'Median antenna temperature' },
   { figure: 'usable_h_beam_near_center', label: 'Usable hours with the beam near the galactic centre' },
 ];
 
@@ -80,7 +82,8 @@ export function surveyWorkerCount(): number {
   return Math.max(1, Math.min(4, Number.isFinite(n) && n > 0 ? n : 2));
 }
 
-export function useSurvey(current: Scenario | null): SurveyState {
+/** `skyMapsFor`: the read maps of a map-model scenario (sky.maps order), handed to the workers with the scenario. */
+export function useSurvey(current: Scenario | null, skyMapsFor: (s: Scenario) => LoadedSkyMap[] = () => []): SurveyState {
   const [stepText, setStepText] = useState(DEFAULT_SURVEY_STEP);
   const [mhzChoice, setMhz] = useState<number | null>(null);
   const [figure, setFigure] = useState<SurveyFigure>('sky_fraction_covered');
@@ -130,7 +133,8 @@ export function useSurvey(current: Scenario | null): SurveyState {
     const sites = surveyGrid(stepDeg).count;
     setRunSites(sites);
     setElapsedMs(0);
-    engine.run(s, { stepDeg, frequenciesMhz: [f] }, (fr) => {
+    const skyMaps = skyMapsFor(s);
+    engine.run(s, { stepDeg, frequenciesMhz: [f], ...(skyMaps.length ? { skyMaps } : {}) }, (fr) => {
       if (id !== runId.current) return;
       setFraction(fr);
       setElapsedMs(performance.now() - t0);

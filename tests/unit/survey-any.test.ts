@@ -1,0 +1,165 @@
+import { describe, expect, it } from 'vitest';
+import { computeSurvey, type SurveyResult } from '../../src/core/survey';
+import { runPlan } from '../../src/engine/runPlan';
+import { parseScenario } from '../../src/core/scenario';
+import type { PlanResult, Scenario } from '../../src/core/types';
+
+// Issue 11 item 6 and issue 12 item 6: the survey works with every antenna
+// model and gives, per site, the median antenna temperature and the median
+// noise with the scenario's sky model.
+//  - Any antenna but the plain zenith dish goes through the plan's own stages
+//    (survey.ts siteByAnyAntenna -> anyAntennaCoverageStage, the stage runPlan
+//    runs), so every figure must be the plan's, bit for bit.
+//  - The dish keeps its shared-sample path; its antenna temperature comes from
+//    the plan's grids and its noise from the same (T_ref / T_sys)^2 weighting,
+//    so these equal the plan's too (the noise is gathered at the plan's pixels
+//    while fewer than 2 x 2048 are covered, as here).
+//  - With the uniform sky, T_ant is the sky temperature and the noise is the
+//    radiometer equation, both computed here by hand (see below).
+
+function sc(x: unknown): Scenario {
+  const r = parseScenario(x);
+  if (!r.ok) throw new Error(JSON.stringify(r.issues));
+  return r.scenario;
+}
+
+const moonDipole = (sky: string): Scenario => sc({
+  format: 'swathe.scenario/1', name: 'survey test: invented lunar dipole',
+  site: { body: 'moon', lat_deg: 0, lon_deg: 0 },
+  span: { start: '2031-03-01T00:00:00Z', end: '2031-03-31T00:00:00Z', step_min: 60 },
+  telescope: { frequencies_mhz: [8, 30], bandwidth_mhz: 0.5, receiver_temp_k: 300, beam: { model: 'dipole', length_m: 5, height_m: 1.5 } },
+  map: { nside: 16 }, sky: { model: sky },
+});
+
+const earthFan = (sky: string): Scenario => sc({
+  format: 'swathe.scenario/1', name: 'survey test: invented tilted fan beam',
+  site: { body: 'earth', lat_deg: 0, lon_deg: 0 },
+  span: { start: '2030-06-01T00:00:00Z', end: '2030-06-03T00:00:00Z', step_min: 10 },
+  telescope: {
+    frequencies_mhz: [400, 600], pointing: { elevation_deg: 60, azimuth_deg: 180 },
+    beam: { model: 'elliptical_gaussian', length_m: 40, width_m: 8 },
+  },
+  constraints: { sun_max_elev_deg: 0, earth_max_elev_deg: null, horizon_mask: null },
+  map: { nside: 32 }, sky: { model: sky },
+});
+
+const moonDish = (sky: string): Scenario => sc({
+  format: 'swathe.scenario/1', name: 'survey test: invented lunar dish',
+  site: { body: 'moon', lat_deg: 0, lon_deg: 0 },
+  span: { start: '2031-03-01T00:00:00Z', end: '2031-04-20T00:00:00Z', step_min: 30 },
+  telescope: { aperture_m: 300, frequencies_mhz: [8, 30], bandwidth_mhz: 0.5, receiver_temp_k: 300, beam: { model: 'gaussian', fwhm_factor: 1.15 } },
+  map: { nside: 32 }, sky: { model: sky },
+});
+
+async function planAt(s: Scenario, r: SurveyResult, q: number): Promise<PlanResult> {
+  return runPlan({ ...s, site: { body: s.site.body, lat_deg: r.lat_deg[q], lon_deg: r.lon_deg[q] } });
+}
+
+/** Every per-site figure equals the plan's; `exact` for the plan's own stages, else within `tol` relative. */
+function expectPlanFigures(r: SurveyResult, q: number, p: PlanResult, tol: number): void {
+  const at = `${r.body} site ${r.sites[q]} (${r.lat_deg[q]}, ${r.lon_deg[q]})`;
+  const same = (a: number, b: number | null | undefined, what: string) => {
+    const bb = b ?? NaN;
+    if (Number.isNaN(bb)) { expect(a, `${at} ${what}`).toBeNaN(); return; }
+    if (tol === 0) expect(a, `${at} ${what}`).toBe(bb);
+    else expect(Math.abs(a - bb) / Math.max(Math.abs(bb), 1e-300), `${at} ${what}: ${a} vs ${bb}`).toBeLessThanOrEqual(tol);
+  };
+  same(r.usable_h[q], p.summary.hours.usable, 'usable_h');
+  same(r.sun_down_h[q], p.summary.hours.sun_down, 'sun_down_h');
+  same(r.usable_h_zenith_in_band[q], p.summary.galactic.usable_hours_zenith_in_band, 'zenith in band');
+  same(r.usable_h_zenith_near_center[q], p.summary.galactic.usable_hours_zenith_near_center, 'zenith near centre');
+  p.summary.frequencies.forEach((f, m) => {
+    const F = r.frequencies[m];
+    expect(F.mhz).toBe(f.mhz);
+    same(F.sky_fraction_covered[q], f.sky_fraction_covered, `${f.mhz} MHz covered sky`);
+    same(F.usable_hours_beam_in_band[q], f.usable_hours_beam_in_band, `${f.mhz} MHz beam on band`);
+    same(F.usable_hours_beam_near_center[q], f.usable_hours_beam_near_center, `${f.mhz} MHz beam near centre`);
+    same(F.t_ant_median_k[q], f.t_ant_median_k, `${f.mhz} MHz T_ant median`);
+    same(F.noise_median_k[q], f.noise_median_k, `${f.mhz} MHz noise median`);
+  });
+}
+
+// By hand, not with the project's functions: the Cane (1979) spectrum as Dulk
+// et al. (2001, A&A 365, 294, eq. 1) write it, I = I_g nu^-0.52 (1 - e^-tau)/tau
+// + I_eg nu^-0.80 e^-tau, tau = 5.0 nu^-2.1 (nu in MHz), as a brightness
+// temperature T = I c^2 / (2 k nu^2) (Rayleigh-Jeans), plus the CMB 2.7255 K
+// (Fixsen 2009, ApJ 707, 916). c and k are the SI defined values.
+function caneDulkK(mhz: number): number {
+  const tau = 5.0 * mhz ** -2.1;
+  const I = 2.48e-20 * mhz ** -0.52 * ((1 - Math.exp(-tau)) / tau) + 1.06e-20 * mhz ** -0.8 * Math.exp(-tau);
+  const nu = mhz * 1e6;
+  return (I * 299792458 ** 2) / (2 * 1.380649e-23 * nu * nu) + 2.7255;
+}
+
+/**
+ * The radiometer equation (Dicke 1946; Condon & Ransom, Essential Radio
+ * Astronomy, 2016, ch. 3, eq. 3.43): dT = T_sys / sqrt(bandwidth x tau), with
+ * T_sys = T_sky + T_receiver and tau the integration time, here the median
+ * beam-weighted exposure over the covered pixels (the plan's
+ * exposure_median_h_covered, in seconds).
+ */
+function radiometerK(mhz: number, receiverK: number, bandwidthMHz: number, exposureH: number): number {
+  return (caneDulkK(mhz) + receiverK) / Math.sqrt(bandwidthMHz * 1e6 * exposureH * 3600);
+}
+
+describe('the survey takes every antenna through the plan\'s stages: each site equals swathe plan there', () => {
+  it('a dipole over ground on the Moon, galaxy sky', async () => {
+    const s = moonDipole('galaxy');
+    const sites = [2 * 24 + 23, 9 * 24 + 1]; // 15-deg grid: far-side south, near the equator
+    const r = computeSurvey(s, { stepDeg: 15, sites });
+    expect(r.path).toBe('any');
+    expect(r.sky_model).toMatch(/galaxy/i);
+    for (let q = 0; q < sites.length; q++) {
+      const p = await planAt(s, r, q);
+      expect(p.summary.hours.usable).toBeGreaterThan(0);
+      expectPlanFigures(r, q, p, 0);
+    }
+  }, 120_000);
+
+  it('a fan beam tilted 30 deg to the south on the Earth, galaxy sky', async () => {
+    const s = earthFan('galaxy');
+    const sites = [5 * 24 + 3, 8 * 24 + 14];
+    const r = computeSurvey(s, { stepDeg: 15, sites });
+    expect(r.path).toBe('any');
+    expect(r.earth_down_h).toBeNull();
+    for (let q = 0; q < sites.length; q++) {
+      const p = await planAt(s, r, q);
+      expect(p.summary.frequencies[0].sky_fraction_covered).toBeGreaterThan(0);
+      expectPlanFigures(r, q, p, 0);
+    }
+  }, 120_000);
+
+  it('the zenith dish keeps its shared-sample path; its T_ant and noise with the galaxy sky equal the plan\'s', async () => {
+    const s = moonDish('galaxy');
+    const sites = [2 * 24 + 23, 9 * 24 + 1];
+    const r = computeSurvey(s, { stepDeg: 15, sites });
+    expect(r.path).toBe('dish');
+    for (let q = 0; q < sites.length; q++) {
+      const p = await planAt(s, r, q);
+      // the galaxy makes T_sys vary along the drift, so the weighted noise is not the uniform one
+      expect(p.summary.frequencies[0].t_ant_max_k! / p.summary.frequencies[0].t_ant_min_k!).toBeGreaterThan(1.2);
+      // Sun/Earth elevations by dot products (survey.ts header): equal up to rounding, hence 1e-9
+      expectPlanFigures(r, q, p, 1e-9);
+    }
+  }, 120_000);
+});
+
+describe('with the uniform sky, T_ant is the sky temperature and the noise the radiometer equation (by hand)', () => {
+  for (const [name, make] of [['dish (shared-sample path)', moonDish], ['dipole over ground (general path)', moonDipole]] as const) {
+    it(name, async () => {
+      const s = make('uniform');
+      const sites = [2 * 24 + 23];
+      const r = computeSurvey(s, { stepDeg: 15, sites });
+      const p = await planAt(s, r, 0);
+      for (let m = 0; m < r.frequencies.length; m++) {
+        const F = r.frequencies[m], mhz = F.mhz;
+        // T_ant = T_sky for every beam model (no ground temperature given: the ground is left out); float32 series
+        expect(Math.abs(F.t_ant_median_k[0] / caneDulkK(mhz) - 1), `${mhz} MHz T_ant`).toBeLessThan(1e-6);
+        const e = p.summary.frequencies[m].exposure_median_h_covered;
+        expect(e).toBeGreaterThan(0);
+        // the median of T/sqrt(B e) is T/sqrt(B median e) up to the two middle values of an even count, and float32
+        expect(Math.abs(F.noise_median_k[0] / radiometerK(mhz, 300, 0.5, e) - 1), `${mhz} MHz noise`).toBeLessThan(1e-4);
+      }
+    }, 120_000);
+  }
+});
