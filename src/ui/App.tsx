@@ -6,6 +6,7 @@ import { SkyMap } from './skymap/SkyMap';
 import type { SkyFrame, SkyScale } from './skymap/SkyMap';
 import { ScenarioPanel } from './panel/ScenarioPanel';
 import { ResultsTable } from './results/ResultsTable';
+import { TargetsTable } from './results/TargetsTable';
 import { Timeline } from './results/Timeline';
 import { UsableByFrequency, usableDiffers } from './results/UsableByFrequency';
 import { AttenuationPlot } from './results/AttenuationPlot';
@@ -457,6 +458,7 @@ export function App() {
                 <h2 id="results-head">Results</h2>
                 <ResultsTable result={result} selected={fi} onSelect={setFreqIndex} />
                 <NoiseNote result={result} freqIndex={fi} />
+                <TargetsTable result={result} selected={fi} />
                 <BeamView scenario={result.scenario} selected={fi} />
                 <Timeline result={result} scrubMs={scrub ? scrub.sample.ms : null} markers={crossings} />
                 {result.t_ant && result.t_ant.series[fi] && <AntennaTempCharts result={result} freqIndex={fi} scrubMs={scrub ? scrub.sample.ms : null} />}

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import type { PlanResult } from '../../core/types';
-import { antennaTempCsv, coverageCsv, trackCsv } from '../../core/export/csv';
+import { antennaTempCsv, coverageCsv, targetsCsv, trackCsv } from '../../core/export/csv';
 import { depthAreaCsv } from '../../core/sky/depthArea';
 import { skyLabel } from '../panel/skyLabels';
 import { coverageFits } from '../../core/export/fits';
@@ -68,6 +68,9 @@ export function ExportBar({ result, pngBase, view, mapWidth }: { result: PlanRes
       : []),
     ...(result.noise_maps
       ? [{ label: 'Download depth-area CSV', desc: 'depth_area.csv: sky area at or below each noise level, every frequency', run: () => downloadText(depthAreaCsv(result), `${stem}-depth_area.csv`, 'text/csv') }]
+      : []),
+    ...(result.summary.targets
+      ? [{ label: 'Download targets CSV', desc: 'targets.csv: per target and frequency, hours in the half-power beam, exposure, mean antenna temperature and noise', run: () => downloadText(targetsCsv(result), `${stem}-targets.csv`, 'text/csv') }]
       : []),
     {
       label: 'Download FITS',

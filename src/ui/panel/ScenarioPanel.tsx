@@ -8,6 +8,7 @@ import { HorizonMask } from './HorizonMask';
 import { ShieldingFields } from './ShieldingFields';
 import { SensitivityFields } from '../sensitivity/SensitivityFields';
 import { SkyFields, type SkyMapStatus, type SkyMessage } from './SkyFields';
+import { TargetFields } from './TargetFields';
 
 /** What the sky section needs from the app: the maps' state in storage and the file handler. */
 export interface SkyPanelProps {
@@ -138,6 +139,11 @@ export function ScenarioPanel({ draft, issues, onChange, sky, scenario }: {
       <fieldset>
         <legend id="sky-head">Sky</legend>
         <SkyFields draft={draft} issues={issues} onChange={onChange} {...sky} />
+      </fieldset>
+
+      <fieldset>
+        <legend>Targets</legend>
+        <TargetFields draft={draft} issues={issues} onChange={onChange} />
       </fieldset>
 
       <fieldset>

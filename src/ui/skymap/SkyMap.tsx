@@ -76,6 +76,9 @@ function signed(v: number, d = 2): string {
 
 function LegendSwatch({ e }: { e: LegendEntry }): JSX.Element {
   const common = { display: 'inline-block', width: 26, marginRight: 6, verticalAlign: 'middle' } as const;
+  if (e.kind === 'target') {
+    return <span aria-hidden="true" style={{ ...common, width: 9, height: 9, transform: 'rotate(45deg)', border: `2px solid ${e.colour}`, outline: '1.5px solid #000', margin: '0 15px 0 9px' }} />;
+  }
   if (e.kind === 'centre') {
     return <span aria-hidden="true" style={{ ...common, width: 10, height: 10, borderRadius: 5, background: e.colour, border: '1.5px solid #000', margin: '0 14px 0 8px' }} />;
   }

@@ -15,7 +15,8 @@ import {
   type ValueScale,
 } from './colour';
 import { cachedCoveredMasks, outlineColour, outlineColourName, outlineNside, paintOutlines } from './coverageOutline';
-import { drawCentreMarker, drawGraticuleLabels, drawOverlays, fontPx, haloText, OVERLAY_STYLE, type Ctx2D } from './overlays';
+import { drawCentreMarker, drawGraticuleLabels, drawOverlays, drawTargetMarkers, fontPx, haloText, OVERLAY_STYLE, type Ctx2D } from './overlays';
+import { targetPosition } from '../../core/targets/position';
 import { frameAxisNames, makeMapGeometry, type LookupCache, type MapGeometry, type SkyFrame } from './skyProjection';
 import { kelvin, kelvinUnit } from '../format';
 import { skyTempMap, skyTempScale, skyViewNside } from './skyTemp';
@@ -313,6 +314,18 @@ export function drawOverlayLayer(ctx: Ctx2D, g: MapGeometry, result: PlanResult,
   });
   drawGraticuleLabels(ctx, g, view.frame, u);
   drawCentreMarker(ctx, g, view.frame, u);
+  drawTargetMarkers(ctx, g, view.frame, targetMarks(result), u);
+}
+
+const targetMarkCache = new WeakMap<object, { name: string; vec: [number, number, number] }[]>();
+
+/** The result's targets as positions to mark (from the run's own scenario). */
+function targetMarks(result: PlanResult): { name: string; vec: [number, number, number] }[] {
+  const ts = result.scenario.targets;
+  if (!ts || ts.length === 0) return [];
+  let m = targetMarkCache.get(ts);
+  if (!m) { m = ts.map((t) => { const p = targetPosition(t); return { name: p.name, vec: p.vec }; }); targetMarkCache.set(ts, m); }
+  return m;
 }
 
 /** What the vector layer depends on: when this key is unchanged, a cached layer can be reused. */
@@ -322,6 +335,7 @@ export function overlayKey(g: MapGeometry, result: PlanResult, view: SkyView, u:
   return [
     g.width, g.height, g.flipLongitude, view.frame, m.galactic_band_deg, m.galactic_center_radius_deg, u, dpr,
     b ? `${b.ra_deg},${b.dec_deg},${b.usable},${beamRadiusDeg(result, view.freqIndex)},${b.outlines ? b.outlines.map((o) => `${o.length}:${o[0]},${o[1]}`).join(';') : ''}` : '-',
+    JSON.stringify(result.scenario.targets ?? []),
   ].join('|');
 }
 
@@ -433,7 +447,7 @@ export function drawColourBar(
 }
 
 export interface LegendEntry {
-  kind: 'plane' | 'centre' | 'ecliptic' | 'frequency' | 'beam';
+  kind: 'plane' | 'centre' | 'ecliptic' | 'frequency' | 'beam' | 'target';
   colour: string;
   label: string;
   dashed?: boolean;
@@ -457,6 +471,8 @@ export function legendEntries(result: PlanResult, view: SkyView): LegendEntry[] 
       dashed: !view.beamAt.usable,
     });
   }
+  const nT = result.scenario.targets?.length ?? 0;
+  if (nT > 0) out.push({ kind: 'target', colour: OVERLAY_STYLE.target, label: `Target${nT > 1 ? 's' : ''} (${nT}, named beside the diamond)` });
   const freqs = result.scenario.telescope.frequencies_mhz;
   // In a difference map `result` is plan A and view.diff.other plan B: every figure carries its plan's letter.
   const other = !view.compare && view.diff ? view.diff : null;
@@ -496,7 +512,13 @@ export function frameNote(view: SkyView): string {
 /** Draws one legend entry's symbol at (x, y) (centre line), size s. */
 export function drawLegendSymbol(ctx: Ctx2D, e: LegendEntry, x: number, y: number, s: number, u: number): void {
   ctx.save();
-  if (e.kind === 'centre') {
+  if (e.kind === 'target') {
+    const r = 5 * u, cx = x + s / 2;
+    ctx.beginPath();
+    ctx.moveTo(cx, y - r); ctx.lineTo(cx + r, y); ctx.lineTo(cx, y + r); ctx.lineTo(cx - r, y); ctx.closePath();
+    ctx.lineWidth = 4 * u; ctx.strokeStyle = '#000'; ctx.stroke();
+    ctx.lineWidth = 2 * u; ctx.strokeStyle = e.colour; ctx.stroke();
+  } else if (e.kind === 'centre') {
     ctx.beginPath();
     ctx.arc(x + s / 2, y, 4 * u, 0, 2 * Math.PI);
     ctx.fillStyle = e.colour;

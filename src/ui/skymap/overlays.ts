@@ -88,6 +88,7 @@ export const OVERLAY_STYLE = {
   labelFill: '#1a1a1a',
   labelHalo: 'rgba(255, 255, 255, 0.9)',
   outline: '#555555',
+  target: '#39ff6a',
 };
 
 /** Diagonal hatching over the map's bounding box (the caller clips it to the band). */
@@ -283,4 +284,31 @@ export function drawCentreMarker(ctx: Ctx2D, g: MapGeometry, frame: SkyFrame, u:
   ctx.stroke();
   ctx.font = fontPx(11 * u, 'bold');
   haloText(ctx, 'GC', p[0] + 6 * u, p[1] - 8 * u, u, 'left', 'middle');
+}
+
+/**
+ * The scenario's targets: an open diamond with a dark rim at each position and
+ * its name beside it, drawn over everything else so a label is never covered.
+ */
+export function drawTargetMarkers(ctx: Ctx2D, g: MapGeometry, frame: SkyFrame, targets: readonly { name: string; vec: [number, number, number] }[], u: number): void {
+  if (targets.length === 0) return;
+  const r = 5 * u;
+  ctx.save();
+  ctx.font = fontPx(11 * u, 'bold');
+  for (const t of targets) {
+    const p = g.projection(j2000ToFrameLonLat(frame, t.vec));
+    if (!p) continue;
+    ctx.beginPath();
+    ctx.moveTo(p[0], p[1] - r); ctx.lineTo(p[0] + r, p[1]); ctx.lineTo(p[0], p[1] + r); ctx.lineTo(p[0] - r, p[1]); ctx.closePath();
+    ctx.lineWidth = 4 * u;
+    ctx.strokeStyle = '#000';
+    ctx.stroke();
+    ctx.lineWidth = 2 * u;
+    ctx.strokeStyle = OVERLAY_STYLE.target;
+    ctx.stroke();
+    // labels on the side away from the nearer rim of the ellipse
+    const right = p[0] < g.cx + 0.6 * g.rx;
+    haloText(ctx, t.name.length > 24 ? t.name.slice(0, 23) + '…' : t.name, p[0] + (right ? 1 : -1) * (r + 3 * u), p[1] - r, u, right ? 'left' : 'right', 'middle');
+  }
+  ctx.restore();
 }

@@ -60,12 +60,16 @@ export interface Draft {
   /** sky.ground_temp_k: on/off and the value as typed (kept while off) */
   groundOn?: boolean;
   groundK?: string;
+  /** `targets`: named sky positions as typed, in RA/Dec (eq) or galactic l/b (gal) */
+  targets?: TargetRow[];
   /** optional sensitivity inputs; '' = the default in stats.ts SENSITIVITY_DEFAULTS */
   bandwidth: string;
   receiverK: string;
 }
 
 export interface FeedRow { id: number; x: string; y: string }
+/** One target row: `a` is RA or l, `b` is Dec or b (degrees, as typed). */
+export interface TargetRow { id: number; name: string; sys: 'eq' | 'gal'; a: string; b: string }
 export interface PlanRow { id: number; start: string; end: string; el: string; az: string }
 
 /** The antenna fields as typed. Empty pointing fields mean the default (the zenith) and are left out of the scenario. */
@@ -154,6 +158,9 @@ export function scenarioToDraft(s: Scenario): Draft {
     skyIndex: s.sky?.spectral_index === undefined ? DRAFT_DEFAULTS.skyIndex : num(s.sky.spectral_index),
     groundOn: s.sky?.ground_temp_k !== undefined,
     groundK: s.sky?.ground_temp_k === undefined ? DRAFT_DEFAULTS.groundK : num(s.sky.ground_temp_k),
+    targets: (s.targets ?? []).map((t) => ('ra_deg' in t
+      ? { id: newId(), name: t.name, sys: 'eq' as const, a: num(t.ra_deg), b: num(t.dec_deg) }
+      : { id: newId(), name: t.name, sys: 'gal' as const, a: num(t.l_deg), b: num(t.b_deg) })),
     bandwidth: s.telescope.bandwidth_mhz === undefined ? '' : num(s.telescope.bandwidth_mhz),
     receiverK: s.telescope.receiver_temp_k === undefined ? '' : num(s.telescope.receiver_temp_k),
   };
@@ -269,6 +276,11 @@ export function draftToCandidate(d: Draft): unknown {
     },
     map: { nside: numOrText(d.nside), galactic_band_deg: numOrText(d.band), galactic_center_radius_deg: numOrText(d.centre) },
     ...(skyCandidate(d) !== undefined ? { sky: skyCandidate(d) } : {}),
+    ...((d.targets ?? []).length > 0
+      ? { targets: d.targets!.map((t) => (t.sys === 'eq'
+        ? { name: t.name, ra_deg: numOrText(t.a), dec_deg: numOrText(t.b) }
+        : { name: t.name, l_deg: numOrText(t.a), b_deg: numOrText(t.b) })) }
+      : {}),
   };
 }
 
@@ -299,6 +311,6 @@ export const SHOWN_FIELDS = [
   'telescope.aperture_m', 'telescope.beam', 'telescope.pointing', 'telescope.feeds', 'telescope.pointing_plan', 'telescope.beam.model', 'telescope.bandwidth_mhz', 'telescope.receiver_temp_k', 'telescope.beam.fwhm_factor', 'telescope.frequencies_mhz',
   'constraints.sun_max_elev_deg', 'constraints.earth_max_elev_deg', 'constraints.horizon_mask',
   'constraints.diffraction', 'constraints.ionosphere', 'constraints.sun_min_separation_deg',
-  'sky',
+  'sky', 'targets',
   'map.nside', 'map.galactic_band_deg', 'map.galactic_center_radius_deg',
 ] as const;

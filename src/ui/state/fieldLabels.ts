@@ -56,7 +56,16 @@ const LABELS: Record<string, string> = {
   'sky.maps': 'Sky maps',
   'sky.spectral_index': 'Spectral index β',
   'sky.ground_temp_k': 'Ground temperature (K)',
+  targets: 'Targets',
 };
+
+/** The target row's inputs, by the file key they edit (panel/TargetFields.tsx uses the same labels). */
+export const TARGET_PART: Record<string, string> = { name: 'name', ra_deg: 'RA (°)', dec_deg: 'Dec (°)', l_deg: 'l (°)', b_deg: 'b (°)' };
+
+/** On-screen label of target row i's input (`name`, `ra_deg`, ...), or of the row itself. */
+export function targetLabel(i: number, key?: string): string {
+  return `Target ${i + 1}${key && TARGET_PART[key] ? ` ${TARGET_PART[key]}` : ''}`;
+}
 
 const MASK_PART = ['azimuth', 'elevation', 'rim distance'];
 
@@ -82,6 +91,8 @@ export function fieldLabel(path: string, extra?: ExtraLabels): string | null {
   m = /^telescope\.pointing_plan\.(\d+)(?:\.(\w+))?$/.exec(p);
   if (m) return `Segment ${Number(m[1]) + 1}${m[2] ? ` ${m[2].replace(/_deg$/, '').replace(/_/g, ' ')}` : ''}`;
   if (p.startsWith('telescope.beam.table.')) return LABELS['telescope.beam.table'];
+  m = /^targets\.(\d+)(?:\.(\w+))?$/.exec(p);
+  if (m) return targetLabel(Number(m[1]), m[2]);
   m = /^sky\.maps\.(\d+)(?:\.(\w+))?$/.exec(p);
   if (m) return `Sky map ${Number(m[1]) + 1}${m[2] === 'frequency_mhz' ? ' frequency (MHz)' : m[2] === 'file' ? ' file' : ''}`;
   return null;
