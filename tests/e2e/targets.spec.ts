@@ -35,13 +35,13 @@ test('a target added in the panel shows in the targets table and in targets.csv,
   await page.getByRole('button', { name: 'Add target' }).click();
   await page.getByLabel('Target 1 name').fill('Cold patch, south');
   await page.getByLabel('Target 1 frame').selectOption('gal');
-  await page.getByLabel('Target 1 l (°)').fill('195');
+  await page.getByLabel('Target 1 l (°)').fill('230.5');
   // a target outside the sky: the message names the on-screen label and the range; what was typed stays
   await page.getByLabel('Target 1 b (°)').fill('-91');
   await expect(page.getByTestId('target-fields')).toContainText('"Target 1 b (°)" must be between -90 and 90, got -91');
   await expect(page.getByLabel('Target 1 name')).toHaveValue('Cold patch, south');
-  await expect(page.getByLabel('Target 1 l (°)')).toHaveValue('195');
-  await page.getByLabel('Target 1 b (°)').fill('-36.5');
+  await expect(page.getByLabel('Target 1 l (°)')).toHaveValue('230.5');
+  await page.getByLabel('Target 1 b (°)').fill('21.9');
   await expect(page.getByTestId('target-fields')).not.toContainText('must be');
 
   // the run with the target
@@ -51,6 +51,8 @@ test('a target added in the panel shows in the targets table and in targets.csv,
   await expect(rows).toHaveCount(SHORT.telescope.frequencies_mhz.length);
   await expect(rows.first()).toHaveAttribute('data-name', 'Cold patch, south');
   await expect(page.getByTestId('targets-table')).toContainText('Cold patch, south');
+  // placed where the zenith passes in usable time: it spends time in the half-power beam
+  expect(Number(await rows.first().getAttribute('data-hours'))).toBeGreaterThan(0);
 
   const [dl] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download targets CSV' }).click()]);
   expect(dl.suggestedFilename()).toMatch(/-targets\.csv$/);
@@ -59,7 +61,7 @@ test('a target added in the panel shows in the targets table and in targets.csv,
   expect(lines[0]).toBe('name,ra_deg,dec_deg,l_deg,b_deg,frequency_mhz,usable_hours_in_beam_h,exposure_h,t_ant_mean_k,noise_k');
   expect(lines.length).toBe(1 + SHORT.telescope.frequencies_mhz.length);
   for (let k = 0; k < SHORT.telescope.frequencies_mhz.length; k++) {
-    const cells = lines[1 + k].match(/^"Cold patch, south",([^,]*),([^,]*),195,-36\.5,([^,]*),([^,]*),([^,]*),/);
+    const cells = lines[1 + k].match(/^"Cold patch, south",([^,]*),([^,]*),230\.5,21\.9,([^,]*),([^,]*),([^,]*),/);
     expect(cells, lines[1 + k]).not.toBeNull();
     const row = rows.nth(k);
     expect(Number(cells![3])).toBe(Number(await row.getAttribute('data-mhz')));
@@ -67,6 +69,6 @@ test('a target added in the panel shows in the targets table and in targets.csv,
     expect(Number(cells![5])).toBe(Number(await row.getAttribute('data-exposure')));
   }
   // the CLI writes the same bytes for the same scenario
-  const scenario: Scenario = { ...SHORT, targets: [{ name: 'Cold patch, south', l_deg: 195, b_deg: -36.5 }] };
+  const scenario: Scenario = { ...SHORT, targets: [{ name: 'Cold patch, south', l_deg: 230.5, b_deg: 21.9 }] };
   expect(csv).toBe(cliTargetsCsv(scenario));
 });

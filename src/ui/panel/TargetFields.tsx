@@ -27,7 +27,7 @@ export function TargetFields({ draft, issues, onChange }: {
         <table className="target-table">
           <thead>
             <tr>
-              <th scope="col">Name</th><th scope="col">Frame</th>
+              <th scope="col" title="RA/Dec: J2000/ICRS; l/b: galactic">Name, frame</th>
               <th scope="col">RA / l (°)</th><th scope="col">Dec / b (°)</th>
               <th scope="col"><span className="sr-only">Remove</span></th>
             </tr>
@@ -38,25 +38,28 @@ export function TargetFields({ draft, issues, onChange }: {
               const msgs = issues.get(`targets.${i}`);
               const bad = (k: string) => issues.get(`targets.${i}.${k}`).length > 0;
               return [
-                <tr key={r.id} className={msgs.length ? 'invalid' : undefined} data-testid={`target-row-${i}`}>
-                  <td><input aria-label={targetLabel(i, 'name')} value={r.name} maxLength={L.target_name_max_chars + 20}
+                <tr key={r.id} className={`target-name-row${msgs.length ? ' invalid' : ''}`} data-testid={`target-row-${i}`}>
+                  <td colSpan={3}><input aria-label={targetLabel(i, 'name')} value={r.name} maxLength={L.target_name_max_chars + 20}
                     aria-invalid={bad('name')} onChange={(e) => set(r.id, { name: e.target.value })} /></td>
+                  <td><button type="button" className="icon" aria-label={`Remove target ${i + 1}${r.name ? ` (${r.name})` : ''}`}
+                    onClick={() => onChange({ targets: rows.filter((q) => q.id !== r.id) })}>×</button></td>
+                </tr>,
+                <tr key={`${r.id}-pos`} className={`target-pos-row${msgs.length ? ' invalid' : ''}`}>
                   <td>
                     <select aria-label={`Target ${i + 1} frame`} value={r.sys} onChange={(e) => set(r.id, switchFrame(r, e.target.value as TargetRow['sys']))}>
-                      <option value="eq">RA/Dec (J2000)</option>
-                      <option value="gal">l/b (galactic)</option>
+                      <option value="eq" title="J2000/ICRS right ascension and declination">RA/Dec</option>
+                      <option value="gal" title="galactic longitude and latitude">l/b (gal.)</option>
                     </select>
                   </td>
                   <td><input aria-label={targetLabel(i, ka)} inputMode="decimal" value={r.a} aria-invalid={bad(ka)}
                     placeholder={r.sys === 'eq' ? 'RA' : 'l'} onChange={(e) => set(r.id, { a: e.target.value })} /></td>
                   <td><input aria-label={targetLabel(i, kb)} inputMode="decimal" value={r.b} aria-invalid={bad(kb)}
                     placeholder={r.sys === 'eq' ? 'Dec' : 'b'} onChange={(e) => set(r.id, { b: e.target.value })} /></td>
-                  <td><button type="button" className="icon" aria-label={`Remove target ${i + 1}${r.name ? ` (${r.name})` : ''}`}
-                    onClick={() => onChange({ targets: rows.filter((q) => q.id !== r.id) })}>×</button></td>
+                  <td />
                 </tr>,
                 msgs.length > 0 && (
                   <tr key={`${r.id}-msg`} className="target-msg-row">
-                    <td colSpan={5}><span className="field-msg" role="alert">{msgs.join(' ')}</span></td>
+                    <td colSpan={4}><span className="field-msg" role="alert">{msgs.join(' ')}</span></td>
                   </tr>
                 ),
               ];
