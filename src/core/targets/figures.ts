@@ -59,6 +59,17 @@ function maxFeedPower(b: AntennaBeam, x: number, y: number, z: number, tmp: Floa
   return m;
 }
 
+/**
+ * Both figures of one direction in one pass over the feeds: the summed power
+ * (as AntennaBeam.power: the exposure) into sum[k], the largest single feed's
+ * (the half-power test) into mx[k].
+ */
+function powers(b: AntennaBeam, x: number, y: number, z: number, tmp: Float64Array<ArrayBuffer>, sum: Float64Array, mx: Float64Array, k: number): void {
+  let s = 0, m = 0;
+  if (b.visible(x, y, z)) for (const f of b.feeds) { const p = feedPower(f, x, y, z, tmp); s += p; if (p > m) m = p; }
+  sum[k] = s; mx[k] = m;
+}
+
 /** Rotates a about unit axis k by angle phi (Rodrigues), into out. */
 function rotate(a: Float64Array, k: Float64Array, phi: number, out: Float64Array): void {
   const c = Math.cos(phi), s = Math.sin(phi);
@@ -138,11 +149,15 @@ export function* targetFiguresStage(inp: TargetInputs): Stage<TargetSummary[]> {
     if (anyUsable[i] && w > 0) {
       const frac = w / stepH;
       const g = segOf ? segOf[i] : 0;
+      // no target moves more than the turn in an interval: one cosine bound for all of them
+      const far = reach + Math.abs(angle * frac);
+      const cosFar = far >= Math.PI ? -2 : Math.cos(far);
       for (let j = 0; j < nT; j++) {
         const v = targets[j].vec;
         a[0] = cur[0] * v[0] + cur[1] * v[1] + cur[2] * v[2];
         a[1] = cur[3] * v[0] + cur[4] * v[1] + cur[5] * v[2];
         a[2] = cur[6] * v[0] + cur[7] * v[1] + cur[8] * v[2];
+        if (a[2] < cosFar) continue;
         // how far the target moves in this interval: the turn times its distance from the axis
         const ad = axis[0] * a[0] + axis[1] * a[1] + axis[2] * a[2];
         const move = Math.abs(angle * frac) * Math.sqrt(Math.max(0, 1 - ad * ad));
@@ -153,9 +168,7 @@ export function* targetFiguresStage(inp: TargetInputs): Stage<TargetSummary[]> {
           rotate(a, axis, -u * frac * angle, p);
           for (let k = 0; k < nF; k++) {
             if (!usableByFreq[k][i]) continue;
-            const b = beams[k][g];
-            sum[k] = b.power(p[0], p[1], p[2]);
-            mx[k] = maxFeedPower(b, p[0], p[1], p[2], tmp);
+            powers(beams[k][g], p[0], p[1], p[2], tmp, sum, mx, k);
           }
         };
         const maxAt = (u: number, k: number): number => {
