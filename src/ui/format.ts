@@ -60,3 +60,16 @@ export function kelvin(v: number, digits = 3): string {
   const { factor, unit } = kelvinUnit(v);
   return `${Number((v * factor).toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 10 })} ${unit}`;
 }
+
+/**
+ * A median and its range in one kelvin unit, the one the largest value takes
+ * ("0.394 MK", "(0.391 – 4.69 MK)"), so one table cell does not mix 391,000 K
+ * with 4.69 MK; a value that would read below 0.01 of that unit keeps its own.
+ */
+export function kelvinMedianRange(median: number, min: number, max: number, digits = 3): { median: string; range: string } {
+  const { factor, unit } = kelvinUnit(max);
+  const fits = (v: number) => Number.isFinite(v) && (v === 0 || Math.abs(v * factor) >= 0.01);
+  const bare = (v: number) => Number((v * factor).toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 10 });
+  if (!Number.isFinite(max) || !fits(min) || !fits(median)) return { median: kelvin(median, digits), range: `${kelvin(min, digits)} – ${kelvin(max, digits)}` };
+  return { median: `${bare(median)} ${unit}`, range: `${bare(min)} – ${bare(max)} ${unit}` };
+}

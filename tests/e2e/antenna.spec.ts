@@ -183,8 +183,13 @@ test('switching the beam model and back gives back what was typed, also after a 
   await page.getByLabel('Aperture (m)').fill('77');
   await page.getByLabel('FWHM factor k').fill('1.3');
   await page.getByLabel('Beam model').selectOption('elliptical_gaussian');
+  // the starting short side gives at most a 90° beam at 8 MHz: k λ / (π/2) = 1.3 × 37.47 m / 1.571 = 31.0 m, rounded up to 32 m
+  // (FWHM = k λ / size, the model's formula in README; λ = c / f with c = 299 792 458 m/s)
+  await expect(page.getByLabel('Width (m)')).toHaveValue('32');
+  await expect(page.getByLabel('Width (m)')).not.toHaveAttribute('aria-invalid', 'true');
+  await expect(page.getByLabel('Length (m)')).toHaveValue('77');
   await page.getByLabel('Length (m)').fill('120');
-  await page.getByLabel('Width (m)').fill('14.5');
+  await page.getByLabel('Width (m)').fill('40.5');
   await page.getByLabel('Beam model').selectOption('dipole');
   await page.getByLabel('Dipole length (m)').fill('9');
   await page.getByLabel('Height over ground (m)').fill('4');
@@ -197,7 +202,7 @@ test('switching the beam model and back gives back what was typed, also after a 
   await expect(page.getByLabel('Dipole length (m)')).toHaveValue('9');
   await page.getByLabel('Beam model').selectOption('elliptical_gaussian');
   await expect(page.getByLabel('Length (m)')).toHaveValue('120');
-  await expect(page.getByLabel('Width (m)')).toHaveValue('14.5');
+  await expect(page.getByLabel('Width (m)')).toHaveValue('40.5');
   await page.getByLabel('Beam model').selectOption('gaussian');
   await expect(page.getByLabel('Aperture (m)')).toHaveValue('77');
   await expect(page.getByLabel('FWHM factor k')).toHaveValue('1.3');

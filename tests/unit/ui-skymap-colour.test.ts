@@ -69,6 +69,9 @@ describe('sky map colour scale', () => {
     expect(scaleTicks({ kind: 'linear', min: 0, max: 1234 }, 5)).toEqual([0, 200, 400, 600, 800, 1000, 1200]);
     expect(scaleTicks({ kind: 'log', min: 1.5, max: 2000 })).toEqual([10, 100, 1000]);
     expect(scaleTicks({ kind: 'log', min: 3, max: 40 })).toEqual([5, 10, 20]);
+    // under half a decade (a sky map from 2.2 to 7.4 MK): every digit, so the bar has more than one label
+    expect(scaleTicks({ kind: 'log', min: 2.2e6, max: 7.4e6 })).toEqual([3e6, 4e6, 5e6, 6e6, 7e6]);
+    expect(scaleTicks({ kind: 'log', min: 0.85, max: 1.9 })).toEqual([0.9, 1]);
     expect(scaleTicks({ kind: 'diverging', min: -50, max: 50 }, 4)).toEqual([-40, -20, 0, 20, 40]);
     expect(formatTick(1500)).toBe('1,500');
     expect(formatTick(0.25)).toBe('0.25');

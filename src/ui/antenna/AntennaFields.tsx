@@ -1,6 +1,7 @@
 import { useRef, useState } from 'react';
 import type { BeamModel } from '../../core/types';
 import { wavelengthM } from '../../core/beam';
+import { SCENARIO_LIMITS } from '../../core/scenario';
 import { parsePatternCsv, PATTERN_CSV_COLUMNS } from '../../core/antenna/patternCsv';
 import { parseUtcMs } from '../../core/time';
 import type { AntennaDraft, Draft, IssueIndex } from '../state/draft';
@@ -17,6 +18,8 @@ import { MODEL_LABELS, antennaLabels } from './labels';
 const MODELS: BeamModel[] = ['gaussian', 'airy', 'elliptical_gaussian', 'dipole', 'pattern'];
 
 const round = (v: number, d = 2) => String(Number(v.toFixed(d)));
+/** Rounded up to two significant digits (57.6 -> 58, 0.1234 -> 0.13). */
+const niceUp = (v: number) => { const q = 10 ** (Math.floor(Math.log10(v)) - 1); return Number((Math.ceil(v / q - 1e-9) * q).toPrecision(2)); };
 
 /** Fields a model needs that are still empty get a starting value (what the user typed is never replaced). */
 function startingValues(model: BeamModel, d: Draft): Partial<AntennaDraft> {
@@ -25,9 +28,13 @@ function startingValues(model: BeamModel, d: Draft): Partial<AntennaDraft> {
   const lambda = mhz.length ? wavelengthM(Math.min(...mhz)) : 30;
   if (model === 'elliptical_gaussian') {
     const ap = Number(d.aperture);
+    const size = Number.isFinite(ap) && ap > 0 ? ap : 100;
+    // the short side wide enough for the model's widest beam at the lowest frequency, so the start is not already an error
+    const k = Number(d.fwhmFactor) > 0 ? Number(d.fwhmFactor) : 1.15;
+    const width = Math.max(size / 8, niceUp((k * lambda) / ((SCENARIO_LIMITS.fwhm_max_deg * Math.PI) / 180)));
     return {
-      ...(a.ellLength.trim() === '' ? { ellLength: Number.isFinite(ap) && ap > 0 ? d.aperture.trim() : '100' } : {}),
-      ...(a.ellWidth.trim() === '' ? { ellWidth: Number.isFinite(ap) && ap > 0 ? round(ap / 8) : '12.5' } : {}),
+      ...(a.ellLength.trim() === '' ? { ellLength: round(Math.max(size, width)) } : {}),
+      ...(a.ellWidth.trim() === '' ? { ellWidth: round(width) } : {}),
     };
   }
   if (model === 'dipole') {
@@ -153,6 +160,8 @@ function PatternLoader({ draft, messages, onTable }: {
   const fileRef = useRef<HTMLInputElement>(null);
   const [note, setNote] = useState<{ text: string; bad: boolean } | null>(null);
   const t = draft.ant.table;
+  // with no table yet, the parser's "table ... got nothing" only repeats the summary line: that line becomes the message
+  const missing = !t && messages.length > 0;
   const load = async (file: File) => {
     let text: string;
     try {
@@ -171,10 +180,10 @@ function PatternLoader({ draft, messages, onTable }: {
   };
   return (
     <div className="pattern-load">
-      <p className="table-summary" data-testid="pattern-summary">
+      <p className={missing ? 'table-summary field-msg' : 'table-summary'} role={missing ? 'alert' : undefined} data-testid="pattern-summary">
         {t
           ? `Pattern table from ${draft.ant.tableSource}: ${t.frequencies_mhz.length} frequenc${t.frequencies_mhz.length === 1 ? 'y' : 'ies'} (${t.frequencies_mhz[0]}–${t.frequencies_mhz[t.frequencies_mhz.length - 1]} MHz), ${t.zenith_deg.length} zenith angles to ${t.zenith_deg[t.zenith_deg.length - 1]}°, ${t.azimuth_deg.length} azimuths.`
-          : 'No pattern table yet: load one from a CSV file.'}
+          : `No pattern table yet: load one from a CSV file${missing ? ' (nothing is computed until one is loaded)' : ''}.`}
       </p>
       <div className="row-buttons">
         <button type="button" className="small" onClick={() => fileRef.current?.click()}>Load pattern CSV…</button>
@@ -183,7 +192,7 @@ function PatternLoader({ draft, messages, onTable }: {
       </div>
       <p className="hint">CSV: a header naming {PATTERN_CSV_COLUMNS.join(', ')} (any order), then one row per gain; zenith angle from the boresight, azimuth from y′ through x′ (antenna frame); every frequency × zenith × azimuth present.</p>
       {note && <p className={note.bad ? 'field-msg' : 'hint'} role={note.bad ? 'alert' : 'status'}>{note.text}</p>}
-      {messages.length > 0 && <p className="field-msg" role="alert">{messages.join(' ')}</p>}
+      {messages.length > 0 && !missing && <p className="field-msg" role="alert">{messages.join(' ')}</p>}
     </div>
   );
 }

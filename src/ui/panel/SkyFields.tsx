@@ -39,7 +39,7 @@ export function SkyFields({ draft, issues, onChange, status, progress = {}, mess
     <div className="sky-fields" role="group" aria-labelledby="sky-head">
       <Field label="Sky model" messages={issues.get('sky.model')}
         hint={model === 'galaxy' ? 'analytic Galaxy with free-free absorption; load a survey map for precise work'
-          : model === 'uniform' ? 'the same high-latitude spectrum in every direction' : 'HEALPix FITS maps (K or mK), kept in this browser'}>
+          : model === 'uniform' ? 'the same high-latitude spectrum in every direction' : 'HEALPix FITS maps (K, mK or µK), kept in this browser'}>
         {(p) => (
           <select {...p} value={model} onChange={(e) => onChange({ skyModel: e.target.value as SkyModelName })}>
             {(Object.keys(SKY_MODEL_LABELS) as SkyModelName[]).map((m) => <option key={m} value={m}>{SKY_MODEL_LABELS[m]}</option>)}
@@ -82,7 +82,7 @@ export function SkyFields({ draft, issues, onChange, status, progress = {}, mess
           {mapsMsgs.length > 0 && <p className="field-msg" role="alert" data-testid="sky-maps-msg">{mapsMsgs.join(' ')}</p>}
         </div>
       )}
-      {message && (
+      {message && model === 'map' && (
         <p className={message.error ? 'field-msg' : 'hint'} role={message.error ? 'alert' : 'status'} data-testid="sky-file-msg">
           {message.text}
           {message.progress !== undefined && (
@@ -91,15 +91,18 @@ export function SkyFields({ draft, issues, onChange, status, progress = {}, mess
         </p>
       )}
       <div className="constraint">
-        <label className="check">
+        <label className="check wide">
           <input type="checkbox" checked={draft.groundOn ?? false} onChange={(e) => onChange({ groundOn: e.target.checked })} /> Ground seen at
         </label>
         <input aria-label="Ground temperature (K)" inputMode="decimal" value={draft.groundK ?? DRAFT_DEFAULTS.groundK}
           disabled={!draft.groundOn} aria-invalid={issues.get('sky.ground_temp_k').length > 0}
           onChange={(e) => onChange({ groundK: e.target.value })} />
-        <span className="unit">K (off: the beam below the horizon is left out)</span>
+        <span className="unit">K</span>
         {issues.get('sky.ground_temp_k').length > 0 && <span className="field-msg" role="alert">{issues.get('sky.ground_temp_k').join(' ')}</span>}
       </div>
+      <p className="hint">{draft.groundOn
+        ? `the beam's share below the horizon or the mask sees the ground at this temperature (${L.ground_temp_k[0]}–${L.ground_temp_k[1]} K)`
+        : "off: the beam's share below the horizon or the mask is left out, and its fraction is reported"}</p>
     </div>
   );
 }

@@ -1,6 +1,6 @@
 import { useId } from 'react';
 import type { PlanResult } from '../../core/types';
-import { fixed, hours, percent, sig, wavelength, kelvin } from '../format';
+import { fixed, hours, percent, sig, wavelength, kelvin, kelvinMedianRange } from '../format';
 import { ScrollCue } from '../ScrollCue';
 import { summaryHours } from '../../core/export/summary';
 import { skyLabel } from '../panel/skyLabels';
@@ -98,7 +98,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
               {hasTAnt && (
                 <td data-testid={`tant-cell-${i}`} data-median={f.t_ant_median_k ?? ''} data-min={f.t_ant_min_k ?? ''} data-max={f.t_ant_max_k ?? ''}>
                   {f.t_ant_median_k !== undefined && Number.isFinite(f.t_ant_median_k)
-                    ? <>{kelvin(f.t_ant_median_k, 3)}<br /><span className="muted sub">({kelvin(f.t_ant_min_k!, 3)} – {kelvin(f.t_ant_max_k!, 3)})</span></>
+                    ? (() => { const k = kelvinMedianRange(f.t_ant_median_k, f.t_ant_min_k!, f.t_ant_max_k!); return <>{k.median}<br /><span className="muted sub">({k.range})</span></>; })()
                     : '—'}
                 </td>
               )}
@@ -114,7 +114,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
       )}
       {hasTAnt && (
         <p className="table-note" data-testid="tant-note">
-          Antenna temperature: the {skyName} sky model averaged over the beam as it drifts, over usable time.
+          Antenna temperature: the sky model ({skyName}) averaged over the beam as it drifts, over usable time.
           {result.t_ant?.ground_included && result.scenario.sky?.ground_temp_k !== undefined &&
             ` The beam's share below the horizon or the mask sees the ground at ${kelvin(result.scenario.sky.ground_temp_k, 4)}.`}
           {groundLeft.length > 0 && (

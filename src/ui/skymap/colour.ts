@@ -150,12 +150,16 @@ export function scaleTicks(s: ValueScale, count = 5): number[] {
     const lo = Math.ceil(Math.log10(s.min) - 1e-9);
     const hi = Math.floor(Math.log10(s.max) + 1e-9);
     const decades = hi - lo + 1;
-    const mult = decades <= 1 ? [1, 2, 5] : decades <= 2 ? [1, 3] : [1];
-    for (let e = lo - 1; e <= hi; e++)
-      for (const m of mult) {
-        const v = m * 10 ** e;
-        if (v >= s.min * (1 - 1e-9) && v <= s.max * (1 + 1e-9)) out.push(Number(v.toPrecision(12)));
-      }
+    const pick = (mult: number[]) => {
+      for (let e = lo - 1; e <= hi; e++)
+        for (const m of mult) {
+          const v = m * 10 ** e;
+          if (v >= s.min * (1 - 1e-9) && v <= s.max * (1 + 1e-9)) out.push(Number(v.toPrecision(12)));
+        }
+    };
+    pick(decades <= 1 ? [1, 2, 5] : decades <= 2 ? [1, 3] : [1]);
+    // a range well under a decade (a sky from 2.2 to 7.4 MK) would get one tick: label every digit instead
+    if (out.length < 3) { out.length = 0; pick([1, 2, 3, 4, 5, 6, 7, 8, 9]); }
     return out;
   }
   const step = niceStep(s.max - s.min, count);
