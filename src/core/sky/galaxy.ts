@@ -57,7 +57,7 @@ export interface GalaxyParams {
 }
 
 export const GALAXY_PARAMS: GalaxyParams = {
-  thin_k_per_kpc: 93929, // fitted
+  thin_k_per_kpc: 93938, // fitted
   thick_ratio: 0.3314, // the thin disk 15% of the luminosity
   thin_hz_kpc: 0.125, // fitted in 0.125-0.3: Beuermann et al.'s 250 pc full thickness
   thin_hr_kpc: 5,
