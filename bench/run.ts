@@ -1,7 +1,7 @@
 // `npm run bench` prints the benchmark figures, each measured side by side in
 // this one run; `npm run bench -- --json` also prints, as its last line, one
 // JSON object {"scenarios":[{name, fast_s, naive_s, floor_s, ratio,
-// fast_over_floor, max_rel_dev}], "antenna": [...], "survey": {...}}.
+// fast_over_floor, max_rel_dev}], "antenna": [...], "survey": {...}, "targets": [...]}.
 
 import { benchCoverage } from './coverage';
 
@@ -27,7 +27,8 @@ async function main(): Promise<void> {
   const antenna = await (await import('./antenna')).benchAntenna((l) => console.log(l)); // issue 11 item 8
   const survey = await (await import('./survey')).benchSurvey((l) => console.log(l)); // issue 5 item 1
   const antennaTemp = await (await import('./antennaTemp')).benchAntennaTemp((l) => console.log(l)); // issue 12 item 8
-  if (json) console.log(JSON.stringify({ scenarios: cov.scenarios, antenna: antenna.rows, survey: survey.result, antenna_temp: antennaTemp }));
+  const targets = await (await import('./targets')).benchTargets((l) => console.log(l)); // issue 12 item 5
+  if (json) console.log(JSON.stringify({ scenarios: cov.scenarios, antenna: antenna.rows, survey: survey.result, antenna_temp: antennaTemp, targets }));
 }
 
 main().catch((e) => {
