@@ -721,19 +721,17 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
       out.usable_h_zenith_near_center[q] = hours.zenith_near_center;
 
       // antenna temperature of the usable samples (the plan's grids; a symmetric beam needs the zenith alone)
-      let tA: { t_ant_k: Float32Array[] };
-      if (uniformSky) {
-        // the plan's grid of a constant sky holds that constant (to rounding, below float32's)
-        tA = {
-          t_ant_k: tGrids.map((row, f) => {
-            const q0 = row[0].quad, gf = q0.groundWeight / (q0.groundWeight + q0.skyWeight || 1);
-            const v = withGround(constK[f]!, gf, groundK);
-            const a = new Float32Array(track.n);
-            for (let i = 0; i < a.length; i++) a[i] = use[i] ? v : NaN;
-            return a;
-          }),
-        };
-      } else {
+      let tA: { t_ant_k: Float32Array[] } | null = null;
+      // a uniform sky: the plan's grid holds the sky's constant (to rounding, below float32's), so T_ant is
+      // that value at every usable sample: its median, T_ref = T_ant + receiver and weights of 1 follow
+      // without a series (sysWeightedTrack would give the same: every ratio T_ref / T_sys is 1)
+      let anyUsable = 0;
+      for (let i = 0; i < use.length && !anyUsable; i++) anyUsable = use[i];
+      const tUniform = uniformSky ? tGrids.map((row, f) => {
+        const q0 = row[0].quad, gf = q0.groundWeight / (q0.groundWeight + q0.skyWeight || 1);
+        return anyUsable ? Math.fround(withGround(constK[f]!, gf, groundK)) : NaN;
+      }) : null;
+      if (!tUniform) {
         const frames = symmetric ? zenithOnlyFrames(track) : horizonFrames(track, lon);
         tA = yield* sub(antennaTempStage(frames, tGrids, null, groundK, use), (f) => progress(0.3 * f));
       }
@@ -746,7 +744,7 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
         const fig = out.frequencies[f];
         fig.usable_hours_beam_in_band[q] = hours.beam_in_band[f];
         fig.usable_hours_beam_near_center[q] = hours.beam_near_center[f];
-        fig.t_ant_median_k[q] = tAntSummary(tA.t_ant_k[f], use).median;
+        fig.t_ant_median_k[q] = tUniform ? tUniform[f] : tAntSummary(tA!.t_ant_k[f], use).median;
         const lo = 0.5 + (0.5 * f) / beams.length, span = 0.5 / beams.length;
         const cs = coveredMaskStage(hit, beams[f].fwhmRad / 2, nside);
         let rc = cs.next();
@@ -759,12 +757,16 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
           // the plan's noise with the sky (sky/noise.ts): the exposure of the track with each
           // sample's hours weighted by (T_ref / T_sys)^2; with a uniform sky the weights are the
           // hours themselves and the unweighted hit map serves
-          const wt = sysWeightedTrack(track, tA.t_ant_k[f], sens.receiver_temp_k, use);
-          let hitW = hit;
-          if (ncov > 0 && !sameWeights(wt.track.weight_h, track.weight_h, use)) {
-            hitW = yield* sub(hitMapStage(wt.track, use, { nside: hitNside }), () => progress(lo + 0.5 * span));
+          let hitW = hit, tRef: number;
+          if (tUniform) tRef = tUniform[f] + sens.receiver_temp_k;
+          else {
+            const wt = sysWeightedTrack(track, tA!.t_ant_k[f], sens.receiver_temp_k, use);
+            tRef = wt.tRefK;
+            if (ncov > 0 && !sameWeights(wt.track.weight_h, track.weight_h, use)) {
+              hitW = yield* sub(hitMapStage(wt.track, use, { nside: hitNside }), () => progress(lo + 0.5 * span));
+            }
           }
-          const ns = noiseMedianStage(hitW, beams[f], covered, ncov, nside, wt.tRefK, sens.bandwidth_mhz, noiseTarget);
+          const ns = noiseMedianStage(hitW, beams[f], covered, ncov, nside, tRef, sens.bandwidth_mhz, noiseTarget);
           let rn = ns.next();
           while (!rn.done) { yield progress(lo + 0.5 * span + 0.5 * span * rn.value); rn = ns.next(); }
           fig.noise_median_k[q] = rn.value;

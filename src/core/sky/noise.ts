@@ -17,11 +17,13 @@ import type { Track } from '../types';
 
 /** Median of the finite values of `v` over the flagged samples; NaN when there are none. */
 function flaggedMedian(v: Float64Array, usable: Uint8Array): number {
-  const a: number[] = [];
-  for (let i = 0; i < v.length; i++) if (usable[i] && v[i] === v[i]) a.push(v[i]);
-  if (a.length === 0) return NaN;
-  a.sort((x, y) => x - y);
-  const n = a.length;
+  let n = 0;
+  for (let i = 0; i < v.length; i++) if (usable[i] && v[i] === v[i]) n++;
+  if (n === 0) return NaN;
+  // a typed array sorts numerically without a comparator (several times faster; the survey calls this per site)
+  const a = new Float64Array(n);
+  for (let i = 0, k = 0; i < v.length; i++) if (usable[i] && v[i] === v[i]) a[k++] = v[i];
+  a.sort();
   return n % 2 ? a[(n - 1) / 2] : (a[n / 2 - 1] + a[n / 2]) / 2;
 }
 
