@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { computeSurvey, type SurveyResult } from '../../src/core/survey';
 import { runPlan } from '../../src/engine/runPlan';
 import { parseScenario } from '../../src/core/scenario';
+import { mergeSurveyFiles, surveyCsv, surveyMeta } from '../../src/core/surveyCsv';
 import type { PlanResult, Scenario } from '../../src/core/types';
 
 // Issue 11 item 6 and issue 12 item 6: the survey works with every antenna
@@ -162,4 +163,39 @@ describe('with the uniform sky, T_ant is the sky temperature and the noise the r
       }
     }, 120_000);
   }
+});
+
+describe('survey.csv swathe.survey/3: the median antenna temperature per frequency, and version 2 still merges', () => {
+  it('writes t_ant_median_k_<f>mhz last, 6 significant digits, and names the sky model', () => {
+    const s = moonDish('uniform');
+    const r = computeSurvey(s, { stepDeg: 15, sites: [2 * 24 + 23, 3 * 24 + 5] });
+    const lines = surveyCsv(r).trimEnd().split('\n');
+    const cols = lines[0].split(',');
+    expect(cols.slice(-2)).toEqual(['t_ant_median_k_8mhz', 't_ant_median_k_30mhz']);
+    const row = lines[1].split(',');
+    // by hand (Cane/Dulk + CMB above), to the CSV's 6 significant digits
+    expect(Number(row[cols.indexOf('t_ant_median_k_30mhz')])).toBe(Number(caneDulkK(30).toPrecision(6)));
+    const meta = surveyMeta(s, r, 'survey.csv');
+    expect(meta.format).toBe('swathe.survey/3');
+    expect(meta.sky_model).toMatch(/uniform/i);
+  });
+
+  it('merges two version-2 shards (no T_ant column, no sky model) into a version-2 file', () => {
+    const meta = (i: number) => JSON.stringify({
+      format: 'swathe.survey/2', csv: `s${i}.csv`, name: 'v2', body: 'moon', grid: { kind: 'cell-centres', step_deg: 90, nlat: 2, nlon: 4, sites: 8 },
+      span: { start: '2031-03-01T00:00:00Z', end: '2031-03-02T00:00:00Z' }, nside: 16, frequencies_mhz: [8], sensitivity: null,
+      scenario_fingerprint: '0123456789abcdef', columns: ['site', 'lat_deg', 'usable_h'], shard: { index: i, count: 2 }, note: 'n',
+    });
+    const part = (i: number) => ({ name: `s${i}.csv`, text: `site,lat_deg,usable_h\n${[0, 1, 2, 3, 4, 5, 6, 7].filter((k) => k % 2 === i - 1).map((k) => `${k},0,1.000`).join('\n')}\n`, meta: { name: `s${i}.json`, text: meta(i) } });
+    const m = mergeSurveyFiles([part(1), part(2)]);
+    expect(m.ok).toBe(true);
+    if (!m.ok) return;
+    expect(m.text.split('\n').length).toBe(1 + 8 + 1);
+    expect(JSON.parse(m.meta!).format).toBe('swathe.survey/2');
+    // a version-3 file with a version-2 one is refused by format
+    const v3 = { ...part(2), meta: { name: 's2.json', text: meta(2).replace('swathe.survey/2', 'swathe.survey/3') } };
+    const bad = mergeSurveyFiles([part(1), v3]);
+    expect(bad.ok).toBe(false);
+    if (!bad.ok) expect(bad.message).toMatch(/is swathe\.survey\/3 but .* is swathe\.survey\/2/);
+  });
 });
