@@ -73,3 +73,12 @@ export function kelvinMedianRange(median: number, min: number, max: number, digi
   if (!Number.isFinite(max) || !fits(min) || !fits(median)) return { median: kelvin(median, digits), range: `${kelvin(min, digits)} – ${kelvin(max, digits)}` };
   return { median: `${bare(median)} ${unit}`, range: `${bare(min)} – ${bare(max)} ${unit}` };
 }
+
+/** A solid angle with an SI prefix below 0.001 sr (BIPM SI Brochure, Table 7): "0.0524 sr", "0.821 msr", "3.1 µsr". */
+export function steradian(v: number, digits = 3): string {
+  if (!Number.isFinite(v)) return '—';
+  const a = Math.abs(v);
+  if (a === 0 || a >= 1e-3) return `${sig(v, digits)} sr`;
+  if (a >= 1e-5) return `${sig(v * 1e3, digits)} msr`;
+  return `${sig(v * 1e6, digits)} µsr`;
+}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { kelvin, kelvinMedianRange } from '../../src/ui/format';
+import { kelvin, kelvinMedianRange, steradian } from '../../src/ui/format';
 
 // Issue 9 item 9: noise in the UI with SI prefixes (BIPM SI Brochure, 9th ed., Table 7: milli 1e-3, micro 1e-6, nano 1e-9).
 describe('kelvin', () => {
@@ -30,5 +30,17 @@ describe('kelvinMedianRange', () => {
   it('keeps a value that would read below 0.01 of that unit in its own unit', () => {
     expect(kelvinMedianRange(5_000, 3_000, 2e6)).toEqual({ median: '5,000 K', range: '3,000 K – 2 MK' });
     expect(kelvinMedianRange(Number.NaN, 1, 2)).toEqual({ median: '—', range: '1 K – 2 K' });
+  });
+});
+
+// Beam solid angles: milli- and micro-steradian below 0.001 sr (BIPM SI Brochure, Table 7), never e-notation.
+describe('steradian', () => {
+  it('keeps the digits short with an SI prefix', () => {
+    expect(steradian(0.0524)).toBe('0.0524 sr');
+    expect(steradian(0.001)).toBe('0.001 sr');
+    expect(steradian(8.21e-4)).toBe('0.821 msr');
+    expect(steradian(3.14e-6)).toBe('3.14 µsr');
+    expect(steradian(2.5e-8)).toBe('0.025 µsr');
+    expect(steradian(Number.NaN)).toBe('—');
   });
 });

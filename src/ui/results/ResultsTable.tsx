@@ -1,6 +1,6 @@
 import { useId } from 'react';
 import type { PlanResult } from '../../core/types';
-import { fixed, hours, percent, sig, wavelength, kelvin, kelvinMedianRange } from '../format';
+import { fixed, hours, percent, sig, wavelength, kelvin, kelvinMedianRange, steradian } from '../format';
 import { ScrollCue } from '../ScrollCue';
 import { summaryHours } from '../../core/export/summary';
 import { skyLabel } from '../panel/skyLabels';
@@ -83,7 +83,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
                   ? `${widthText(f.beam.fwhm_major_deg)} × ${widthText(f.beam.fwhm_minor_deg)}`
                   : `${sig(f.fwhm_deg, 3)}°`}
               </td>
-              <td>{f.beam ? <>{sig(f.beam.solid_angle_sr, 3)} sr<br />{fixed(f.beam.directivity_dbi, 2)} dBi</> : '—'}</td>
+              <td>{f.beam ? <>{steradian(f.beam.solid_angle_sr, 3)}<br />{fixed(f.beam.directivity_dbi, 2)} dBi</> : '—'}</td>
               <td data-testid={`usable-cell-${i}`} data-usable={f.usable_hours ?? s.hours.usable} data-geometric={f.usable_hours_geometric ?? ''} className="nowrap">
                 {hours(f.usable_hours ?? s.hours.usable)} h
                 {diffraction && f.usable_hours_geometric !== undefined && <span className="muted"> ({hours(f.usable_hours_geometric)} h)</span>}
