@@ -66,7 +66,10 @@ function maxFeedPower(b: AntennaBeam, x: number, y: number, z: number, tmp: Floa
  */
 function powers(b: AntennaBeam, x: number, y: number, z: number, tmp: Float64Array<ArrayBuffer>, sum: Float64Array, mx: Float64Array, k: number): void {
   let s = 0, m = 0;
-  if (b.visible(x, y, z)) for (const f of b.feeds) { const p = feedPower(f, x, y, z, tmp); s += p; if (p > m) m = p; }
+  if (b.visible(x, y, z)) {
+    const fs = b.feeds;
+    for (let i = 0; i < fs.length; i++) { const p = feedPower(fs[i], x, y, z, tmp); s += p; if (p > m) m = p; }
+  }
   sum[k] = s; mx[k] = m;
 }
 
@@ -135,6 +138,18 @@ export function* targetFiguresStage(inp: TargetInputs): Stage<TargetSummary[]> {
   const bSum0 = new Float64Array(nF), bMax0 = new Float64Array(nF), bSum1 = new Float64Array(nF), bMax1 = new Float64Array(nF);
   const eAcc = new Float64Array(nF), hAcc = new Float64Array(nF);
   frames.at(0, cur);
+  // the interval being followed (set per sample), read by the two helpers below (made once, not per target)
+  let gCur = 0, turn = 0;
+  const usableNow = new Uint8Array(nF);
+  /** powers at fraction u of the interval (u = 0: the sample's own frame) into sum/mx for the usable frequencies */
+  const evalAt = (u: number, sum: Float64Array, mx: Float64Array): void => {
+    if (u === 0) { p[0] = a[0]; p[1] = a[1]; p[2] = a[2]; } else rotate(a, axis, -u * turn, p);
+    for (let k = 0; k < nF; k++) if (usableNow[k]) powers(beams[k][gCur], p[0], p[1], p[2], tmp, sum, mx, k);
+  };
+  const maxAt = (u: number, k: number): number => {
+    rotate(a, axis, -u * turn, q);
+    return maxFeedPower(beams[k][gCur], q[0], q[1], q[2], tmp);
+  };
 
   for (let i = 0; i < n; i++) {
     // the turn over this interval: frame i to frame i+1 (the last interval turns like the one before)
@@ -149,6 +164,8 @@ export function* targetFiguresStage(inp: TargetInputs): Stage<TargetSummary[]> {
     if (anyUsable[i] && w > 0) {
       const frac = w / stepH;
       const g = segOf ? segOf[i] : 0;
+      gCur = g; turn = frac * angle;
+      for (let k = 0; k < nF; k++) usableNow[k] = usableByFreq[k][i];
       // no target moves more than the turn in an interval: one cosine bound for all of them
       const far = reach + Math.abs(angle * frac);
       const cosFar = far >= Math.PI ? -2 : Math.cos(far);
@@ -161,27 +178,15 @@ export function* targetFiguresStage(inp: TargetInputs): Stage<TargetSummary[]> {
         // how far the target moves in this interval: the turn times its distance from the axis
         const ad = axis[0] * a[0] + axis[1] * a[1] + axis[2] * a[2];
         const move = Math.abs(angle * frac) * Math.sqrt(Math.max(0, 1 - ad * ad));
-        const zen = Math.acos(Math.max(-1, Math.min(1, a[2])));
-        if (zen - move > reach) continue;
+        if (reach < Math.PI && Math.acos(Math.max(-1, Math.min(1, a[2]))) - move > reach) continue;
         const m = Math.max(1, Math.ceil(move / maxPiece));
-        const evalAt = (u: number, sum: Float64Array, mx: Float64Array): void => {
-          rotate(a, axis, -u * frac * angle, p);
-          for (let k = 0; k < nF; k++) {
-            if (!usableByFreq[k][i]) continue;
-            powers(beams[k][g], p[0], p[1], p[2], tmp, sum, mx, k);
-          }
-        };
-        const maxAt = (u: number, k: number): number => {
-          rotate(a, axis, -u * frac * angle, q);
-          return maxFeedPower(beams[k][g], q[0], q[1], q[2], tmp);
-        };
         eAcc.fill(0); hAcc.fill(0);
         evalAt(0, bSum0, bMax0);
         for (let s = 1; s <= m; s++) {
           const u0 = (s - 1) / m, u1 = s / m;
           evalAt(u1, bSum1, bMax1);
           for (let k = 0; k < nF; k++) {
-            if (!usableByFreq[k][i]) continue;
+            if (!usableNow[k]) continue;
             eAcc[k] += 0.5 * (bSum0[k] + bSum1[k]);
             const in0 = bMax0[k] >= 0.5, in1 = bMax1[k] >= 0.5;
             if (in0 && in1) hAcc[k] += 1;
@@ -199,7 +204,7 @@ export function* targetFiguresStage(inp: TargetInputs): Stage<TargetSummary[]> {
           bSum0.set(bSum1); bMax0.set(bMax1);
         }
         for (let k = 0; k < nF; k++) {
-          if (!usableByFreq[k][i]) continue;
+          if (!usableNow[k]) continue;
           const e = (w * eAcc[k]) / m, h = (w * hAcc[k]) / m;
           expo[j][k] += e;
           hours[j][k] += h;
