@@ -3,6 +3,7 @@ import { computeSurvey, type SurveyResult } from '../../src/core/survey';
 import { runPlan } from '../../src/engine/runPlan';
 import { parseScenario } from '../../src/core/scenario';
 import { mergeSurveyFiles, surveyCsv, surveyMeta } from '../../src/core/surveyCsv';
+import { estimateSurvey, modelMsPerSite } from '../../src/ui/survey/surveyEstimate';
 import type { PlanResult, Scenario } from '../../src/core/types';
 
 // Issue 11 item 6 and issue 12 item 6: the survey works with every antenna
@@ -197,5 +198,21 @@ describe('survey.csv swathe.survey/3: the median antenna temperature per frequen
     const bad = mergeSurveyFiles([part(1), v3]);
     expect(bad.ok).toBe(false);
     if (!bad.ok) expect(bad.message).toMatch(/is swathe\.survey\/3 but .* is swathe\.survey\/2/);
+  });
+});
+
+describe('the panel\'s cost estimate knows the general path and the sky', () => {
+  it('reproduces the measured anchors of its fits (timings in src/ui/survey/surveyEstimate.ts)', () => {
+    // measured marginal CPU a site (Node, one thread): lunar dipole nside 32, 35 ms; nside 64, 125 ms
+    const d32 = { ...moonDipole('galaxy'), map: { ...moonDipole('galaxy').map, nside: 32 } };
+    const d64 = { ...d32, map: { ...d32.map, nside: 64 } };
+    expect(Math.abs(modelMsPerSite(d32) / 35 - 1)).toBeLessThan(0.1);
+    expect(Math.abs(modelMsPerSite(d64) / 125 - 1)).toBeLessThan(0.1);
+    const e = estimateSurvey(d32, 15, 2);
+    expect(e.general).toBe(true);
+    expect(e.cpuSeconds).toBeCloseTo((288 * modelMsPerSite(d32) + 2 * 3000) / 1000, 9); // a set-up per worker
+    // the dish with a varying sky: about twice the uniform sky's time (measured 92-98 against 47-48 ms)
+    expect(modelMsPerSite(moonDish('galaxy')) / modelMsPerSite(moonDish('uniform'))).toBe(2);
+    expect(estimateSurvey(moonDish('galaxy'), 15, 2).general).toBe(false);
   });
 });

@@ -28,6 +28,12 @@ import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core
 // measured over the sites done so far and the time left.
 
 export const SURVEY_MS_PER_SITE_BASE = 1.5;
+// The fit above was timed with the uniform sky's noise. A sky that varies
+// (the galaxy model, the default, or a map) adds the antenna temperature of
+// every usable sample and a second hit map per frequency for the noise:
+// 92-98 against 47-48 ms CPU a site (216 demo sites of 3 latitude rows, one
+// thread, 4 frequencies, load 7 to 13, 2026-12-02), so about twice.
+export const SURVEY_DISH_SKY_FACTOR = 2;
 export const SURVEY_MS_PER_SITE_PER_SAMPLE: Record<Scenario['site']['body'], number> = { moon: 3.0e-4, mars: 1.1e-4, earth: 1.2e-4 };
 
 // Any antenna but the zenith dish runs the plan's own stages at every site
@@ -56,7 +62,8 @@ export function surveyGeneralPath(s: Scenario): boolean {
 export function modelMsPerSite(s: Scenario): number {
   const samples = estimateRun(s).samples;
   if (surveyGeneralPath(s)) return SURVEY_ANY_MS_PER_SITE_BASE + SURVEY_ANY_MS_PER_SITE_PER_PIXEL * 12 * s.map.nside * s.map.nside;
-  return SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE[s.site.body] * samples;
+  const sky = s.sky?.model === 'uniform' ? 1 : SURVEY_DISH_SKY_FACTOR;
+  return sky * (SURVEY_MS_PER_SITE_BASE + SURVEY_MS_PER_SITE_PER_SAMPLE[s.site.body] * samples);
 }
 
 /** Set-up time per worker (ms): the general path's shared grids; none for the dish. */
