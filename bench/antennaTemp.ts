@@ -3,17 +3,19 @@
 // for a dish and for a dipole over ground, measured in one run:
 //   fast   = antennaTempStage over every sample (grid built lazily, then
 //            interpolated per sample), one run from fresh grids; wall and CPU
-//            time (the machine may be shared: CPU time is what this code costs);
+//            time (the machine may be shared: CPU time is what this code costs;
+//            the goal, under 2 s, is judged on a quiet machine, where wall ~ CPU);
 //   direct = the brute-force beam sum in each sample's exact frame, on a slice
 //            of evenly spaced samples, its time scaled to the whole span;
 //   ratio  = direct / fast;
 //   max deviation = largest |fast - direct| / direct on that slice.
 
+import os from 'node:os';
 import type { Scenario } from '../src/core/types';
 import { drain } from '../src/core/types';
 import { computeTrack } from '../src/core/ephemeris';
 import { antennaBeam, horizonFrames } from '../src/core/antenna';
-import { antennaTempGrid, antennaTempStage, beamQuadrature, stepWidthRad } from '../src/core/sky/antennaTemp';
+import { antennaTempGrid, antennaTempStage, beamQuadrature, gridAxesFor, quadSpacingRad, stepWidthRad } from '../src/core/sky/antennaTemp';
 import { skyModelFor } from '../src/core/sky/model';
 
 const DAY_MS = 86_400_000;
@@ -40,7 +42,7 @@ const CASES = [
 
 const SLICE = 400;
 
-export async function benchAntennaTemp(log: (l: string) => void): Promise<{ name: string; samples: number; fast_s: number; direct_s: number; ratio: number; max_rel_dev: number }[]> {
+export async function benchAntennaTemp(log: (l: string) => void): Promise<{ name: string; samples: number; fast_s: number; fast_cpu_s: number; direct_s: number; ratio: number; max_rel_dev: number; load_avg: number }[]> {
   const out = [];
   const sky = skyModelFor(undefined);
   for (const s of CASES) {
@@ -48,13 +50,14 @@ export async function benchAntennaTemp(log: (l: string) => void): Promise<{ name
     const frames = horizonFrames(track, s.site.lon_deg);
     const freqs = s.telescope.frequencies_mhz;
     const beams = freqs.map((f) => antennaBeam(s, f));
-    const quads = beams.map((b) => beamQuadrature(b));
+    const quads = beams.map((b) => beamQuadrature(b, quadSpacingRad(b, true)));
     for (const f of freqs) sky.at(f); // the model's own maps, cached before timing (their cost is the sky model's)
     let best = Infinity, bestCpu = 0, grids = null as null | ReturnType<typeof antennaTempGrid>[], res = null as null | Float32Array[];
     for (let rep = 0; rep < 1; rep++) {
       const t0 = performance.now();
       const c0 = process.cpuUsage();
-      const g = beams.map((b, k) => antennaTempGrid(b, sky.at(freqs[k]), { maskFree: true, quad: quads[k] }));
+      const axes = gridAxesFor(s.site.body, Date.parse(s.span.start), Date.parse(s.span.end)); // as runPlan takes them
+      const g = beams.map((b, k) => antennaTempGrid(b, sky.at(freqs[k]), { maskFree: true, quad: quads[k], axes }));
       const r = drain(antennaTempStage(frames, g.map((x) => [x]), null, undefined));
       const dt = (performance.now() - t0) / 1000;
       const cu = process.cpuUsage(c0);
@@ -78,8 +81,11 @@ export async function benchAntennaTemp(log: (l: string) => void): Promise<{ name
     }
     const directS = ((performance.now() - t1) / 1000) * (track.n / SLICE);
     const ratio = directS / best;
-    log(`antenna temperature, ${s.name}: ${track.n} samples x ${freqs.length} frequencies: fast ${best.toFixed(2)} s wall, ${bestCpu.toFixed(2)} s CPU (grid cells ${grids!.map((g) => `${g.cells}`).join('/')}, zenith step ${grids!.map((g) => ((g.zenithStepRad * 180) / Math.PI).toFixed(2)).join('/')}, psi bins ${grids!.map((g) => g.nPsi).join('/')}); brute force ${directS.toFixed(0)} s (from ${SLICE} samples, quadrature points ${fine.map((g) => g.quad.n).join('/')}); ratio ${ratio.toFixed(0)}x; max deviation ${(maxDev * 100).toFixed(3)}% (per frequency ${devK.map((d) => (d * 100).toFixed(3)).join('/')}%)`);
-    out.push({ name: s.name, samples: track.n, fast_s: best, direct_s: directS, ratio, max_rel_dev: maxDev });
+    const load = os.loadavg()[0];
+    log(`antenna temperature, ${s.name}: ${track.n} samples x ${freqs.length} frequencies: ratio ${ratio.toFixed(0)}x (goal >= 20x), max deviation ${(maxDev * 100).toFixed(3)}% (goal <= 0.5%; per frequency ${devK.map((d) => (d * 100).toFixed(3)).join('/')}%), ` +
+      `fast ${bestCpu.toFixed(2)} s CPU, ${best.toFixed(2)} s wall at load ${load.toFixed(1)} (goal < 2 s: ${bestCpu < 2 ? 'met' : 'NOT met'} in CPU time, ${best < 2 ? 'met' : 'not met'} in wall time); ` +
+      `grid cells ${grids!.map((g) => `${g.cells}`).join('/')}, zenith step ${grids!.map((g) => ((g.zenithStepRad * 180) / Math.PI).toFixed(2)).join('/')} deg, psi bins ${grids!.map((g) => g.nPsi).join('/')}; brute force ${directS.toFixed(0)} s (from ${SLICE} samples, quadrature points ${fine.map((g) => g.quad.n).join('/')})`);
+    out.push({ name: s.name, samples: track.n, fast_s: best, fast_cpu_s: bestCpu, direct_s: directS, ratio, max_rel_dev: maxDev, load_avg: load });
   }
   return out;
 }

@@ -92,7 +92,8 @@ import {
 import { maskedMedian, SENSITIVITY_DEFAULTS, usableHoursInBand, usableHoursNearCenter } from './stats';
 import { skyModelFor, type LoadedSkyMap, type SkyModel } from './sky/model';
 import { SkyMapError } from './sky/fitsMap';
-import { antennaTempGrid, antennaTempStage, withGround, zenithOnlyFrames, type AntennaTempGrid } from './sky/antennaTemp';
+import { parseUtcMs } from './time';
+import { antennaTempGrid, antennaTempStage, gridAxesFor, withGround, zenithOnlyFrames, type AntennaTempGrid } from './sky/antennaTemp';
 import { tAntSummary } from './sky/tAntSummary';
 import { sysWeightedTrack } from './sky/noise';
 import { frequencyLimitsStage, usableAtAny, usableByFrequency } from './shielding/usableByFrequency';
@@ -604,6 +605,7 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
     throw e;
   }
   const maskFree = !s.constraints.horizon_mask || s.constraints.horizon_mask.every((p) => p[1] <= 0);
+  const tAxes = gridAxesFor(s.site.body, parseUtcMs(s.span.start) ?? 0, parseUtcMs(s.span.end) ?? 0);
   const nSeg = segmentsOf(s).length;
   const tGrids: AntennaTempGrid[][] = [];
   // a uniform sky: T_ant is the sky's value (with the ground's share) at every sample, no lookup needed
@@ -617,7 +619,8 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
       throw e;
     }
     const row: AntennaTempGrid[] = [];
-    for (let g = 0; g < nSeg; g++) row.push(antennaTempGrid(antennaBeam(s, mhzOf(m), g), sg, { maskFree }));
+    // the plan's axes for this span (gridAxesFor), so the shared grids hold the plan's own cells
+    for (let g = 0; g < nSeg; g++) row.push(antennaTempGrid(antennaBeam(s, mhzOf(m), g), sg, { maskFree, axes: tAxes }));
     tGrids.push(row);
     constK.push(sg.constant);
   }

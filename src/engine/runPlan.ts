@@ -18,13 +18,13 @@ import { distinctMasks, frequencyLimitsStage, ionosphereNote, usableAtAny, usabl
 import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, type HitMap } from '../core/coverage';
 import { frequencySummary, NOISE_ESTIMATOR, noiseWithSky, SENSITIVITY_DEFAULTS, skyModelNote } from '../core/stats';
 import { sysWeightedTrack } from '../core/sky/noise';
-import { stepMin } from '../core/time';
+import { parseUtcMs, stepMin } from '../core/time';
 import { macrotask } from './macrotask';
 import { antennaBeam, beamFiguresFor, beamWidthRad, horizonFrames, isPlainZenithDish, sampleSegments, segmentsOf } from '../core/antenna';
 import { anyAntennaCoverageStage } from '../core/antenna/anyAntennaCoverage';
 import type { SegmentSummary } from '../core/types';
 import { skyModelFor, type LoadedSkyMap } from '../core/sky/model';
-import { antennaTempGrid, antennaTempStage, type AntennaTempResult } from '../core/sky/antennaTemp';
+import { antennaTempGrid, antennaTempStage, gridAxesFor, type AntennaTempResult } from '../core/sky/antennaTemp';
 import { SkyMapError } from '../core/sky/fitsMap';
 import { tAntSummary } from '../core/sky/tAntSummary';
 import { targetPosition } from '../core/targets/position';
@@ -184,6 +184,8 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   const tSegs = segmentsOf(s);
   const maskFree = !s.constraints.horizon_mask || s.constraints.horizon_mask.every((p) => p[1] <= 0);
   const tGrids: ReturnType<typeof antennaTempGrid>[][] = [];
+  // the grids' z axis along the body's mean pole: the zenith then stays in a narrow band of rows
+  const tAxes = gridAxesFor(s.site.body, parseUtcMs(s.span.start) ?? track.t0_ms, parseUtcMs(s.span.end) ?? track.end_ms);
   const skyK: NonNullable<PlanResult['sky_k']> = [];
   // the sky model's maps for every frequency in one pass (the galaxy model walks each ray once for all)
   await d.run('antenna temperature', sky.prepareAll(freqsMhz), 0, 0.15);
@@ -192,7 +194,7 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     skyK.push({ nside: g.nside, coordsys: g.coordsys, values: g.values });
     const row = [];
     for (let gi = 0; gi < tSegs.length; gi++) {
-      row.push(antennaTempGrid(antennaBeam(s, freqsMhz[k], gi), g, { maskFree }));
+      row.push(antennaTempGrid(antennaBeam(s, freqsMhz[k], gi), g, { maskFree, axes: tAxes }));
       await d.maybeTurn('antenna temperature', 0.15 + (0.15 * (k + 0.8 + (0.2 * (gi + 1)) / tSegs.length)) / freqsMhz.length);
     }
     tGrids.push(row);

@@ -3,7 +3,7 @@ import type { BeamSpec, Scenario } from '../../src/core/types';
 import { parseScenario } from '../../src/core/scenario';
 import { antennaBeam, horizonFrames } from '../../src/core/antenna';
 import { computeTrack } from '../../src/core/ephemeris';
-import { antennaTempGrid, beamQuadrature, frameOfAngles, withGround, zenithAngles } from '../../src/core/sky/antennaTemp';
+import { antennaTempGrid, beamQuadrature, frameOfAngles, gridAxes, stepWidthRad, withGround, zenithAngles } from '../../src/core/sky/antennaTemp';
 import { skyModelFor } from '../../src/core/sky/model';
 import { uniformSkyK } from '../../src/core/sky/uniform';
 import { runPlan } from '../../src/engine/runPlan';
@@ -68,6 +68,31 @@ describe('antenna temperature of a uniform sky (T_ant = T_sky for every beam mod
     const q = beamQuadrature(beam);
     expect(q.groundWeight / (q.groundWeight + q.skyWeight)).toBeCloseTo(0.5, 3);
   });
+});
+
+describe('the interpolated grid against the direct beam sum on the galaxy sky', () => {
+  // The grid (in the body's pole axes, its strips of columns computed by shifting one placement
+  // of the beam) must agree with the beam summed in each sample's exact frame: a wrong shift
+  // direction or a column off by one moves the beam across the sky and fails this.
+  for (const [name, s] of [BEAMS[0], BEAMS[2], BEAMS[4]]) {
+    it(name, () => {
+      const sc: Scenario = { ...s, span: { start: '2031-01-01T00:00:00Z', end: '2031-02-15T00:00:00Z', step_min: 97 }, constraints: { ...s.constraints, horizon_mask: null } };
+      const sky = skyModelFor({ model: 'galaxy' }).at(10);
+      const track = computeTrack(sc, { mode: 'fast' });
+      const frames = horizonFrames(track, sc.site.lon_deg);
+      const beam = antennaBeam(sc, 10);
+      const grid = antennaTempGrid(beam, sky, { maskFree: true, axes: gridAxes(frames) });
+      // the reference: a beam sum with points 16 to the narrowest width (the grid's have 6)
+      const fine = antennaTempGrid(beam, sky, { maskFree: true, quad: beamQuadrature(beam, stepWidthRad(beam) / 16) });
+      const f = new Float64Array(9);
+      let worst = 0;
+      for (let i = 0; i < track.n; i += 3) {
+        frames.at(i, f);
+        worst = Math.max(worst, Math.abs(grid.at(f) / fine.direct(f) - 1));
+      }
+      expect(worst).toBeLessThan(0.005);
+    });
+  }
 });
 
 describe('zenith angles and cell frames', () => {

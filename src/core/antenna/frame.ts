@@ -28,6 +28,8 @@ export interface HorizonFrames {
   at(i: number, out: Float64Array): void;
   /** the body's rotation pole (J2000 unit vector) at sample i, into out[0..2] */
   pole(i: number, out: Float64Array): void;
+  /** up alone (the same as at's out[6..8], without working out east and north) */
+  up?(i: number, out: Float64Array): void;
 }
 
 function rotationNodes(body: BodyName, startMs: number, endMs: number): NodeTable {
@@ -89,7 +91,8 @@ export function horizonFrames(track: Track, lonDeg: number): HorizonFrames {
     const r = 1 / Math.hypot(Q[2], Q[5], Q[8]);
     out[0] = Q[2] * r; out[1] = Q[5] * r; out[2] = Q[8] * r;
   };
-  return { n: track.n, at, pole };
+  const up = (i: number, out: Float64Array): void => { out[0] = track.zx[i]; out[1] = track.zy[i]; out[2] = track.zz[i]; };
+  return { n: track.n, at, pole, up };
 }
 
 /** A local-frame vector (x east, y north, z up) to J2000 with the frame `f` (as written by `at`). */

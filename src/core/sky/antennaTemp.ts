@@ -20,6 +20,8 @@
 // reported (`groundFraction`, fixed for a beam fixed to the ground).
 
 import type { AntennaBeam, HorizonFrames } from '../antenna';
+import type { BodyName } from '../types';
+import { aeTime, bodyToJ2000 } from '../bodies';
 import { interpRingVec } from './interpolate';
 import { nside2npix } from '../healpix';
 import type { SkyGrid } from './model';
@@ -54,6 +56,19 @@ export function stepWidthRad(beam: AntennaBeam): number {
 
 /** Quadrature spacing per narrowest beam width. */
 export const QUAD_PER_WIDTH = 6;
+/**
+ * The widest quadrature spacing for a beam symmetric about the zenith: a broad
+ * beam's points otherwise fall between the galactic plane's sharp features and
+ * alias them (a 20 deg beam: 0.7% at 2.5 deg spacing, 0.1% at 1.25 deg). Such a
+ * beam's grid needs one turn bin, so the extra points cost little.
+ */
+export const SYMMETRIC_MAX_QUAD_RAD = (1.25 * Math.PI) / 180;
+
+/** The quadrature spacing antennaTempGrid uses for a beam. */
+export function quadSpacingRad(beam: AntennaBeam, maskFree: boolean): number {
+  const r = stepWidthRad(beam) / QUAD_PER_WIDTH;
+  return symmetricAboutZenith(beam, maskFree) ? Math.min(r, SYMMETRIC_MAX_QUAD_RAD) : r;
+}
 /** Zenith grid spacing per width for a beam symmetric about the zenith (cubic interpolation). */
 export const GRID_PER_WIDTH_CUBIC = 4;
 /** Sky resampling nodes per map pixel (skySampler). */
@@ -112,26 +127,36 @@ function symmetricAboutZenith(beam: AntennaBeam, maskFree: boolean): boolean {
 }
 
 /**
- * The sky resampled on nodes regular in colatitude and longitude of its own
- * coordinates (values from the map's bilinear interpolation), so a lookup
- * costs one acos and one atan2. Node spacing: from half to a quarter of the map's
- * pixel (finer for beams that are narrow against it), at most
- * 4 million nodes.
+ * The sky resampled on nodes regular in colatitude and longitude of a chosen
+ * frame (the grid's axes, see gridAxes; values from the map's bilinear
+ * interpolation), so a lookup costs one acos and one atan2, and a turn about
+ * the frame's z axis by a whole number of node steps only shifts the index.
+ * Node spacing: from half to a quarter of the map's pixel (finer for beams
+ * that are narrow against it), at most 4 million nodes.
  */
 export interface SkySampler {
-  /** T at a unit vector in the sky's own coordinates; NaN where the map has no data */
+  /** T at a unit vector in the sampler's frame; NaN where the map has no data */
   at(x: number, y: number, z: number): number;
   nodes: number;
+  /** rows (colatitude steps over pi) and columns (longitude steps over 2 pi) */
+  nr: number; nc: number;
+  /** values, row-major, nc + 1 per row (the first column repeated); a row is filled by ensureRow */
+  v: Float64Array;
+  ensureRow(r: number): void;
 }
 
-const samplerCache = new WeakMap<SkyGrid, Map<number, SkySampler>>();
+const samplerCache = new WeakMap<SkyGrid, Map<string, SkySampler>>();
 
-export function skySampler(sky: SkyGrid, spacingRad: number): SkySampler {
+const IDENTITY3 = Float64Array.from([1, 0, 0, 0, 1, 0, 0, 0, 1]);
+
+/** `axes`: row-major rotation J2000 -> the sampler's frame (default: J2000 itself). */
+export function skySampler(sky: SkyGrid, spacingRad: number, axes: Float64Array = IDENTITY3): SkySampler {
   const d = Math.max(spacingRad, Math.sqrt((2 * Math.PI * Math.PI) / 4e6));
   const nr = Math.max(2, Math.ceil(Math.PI / d));
   let byN = samplerCache.get(sky);
   if (!byN) { byN = new Map(); samplerCache.set(sky, byN); }
-  const hit = byN.get(nr);
+  const key = `${nr}|${Array.from(axes).join(',')}`;
+  const hit = byN.get(key);
   if (hit) return hit;
   const nc = Math.max(4, Math.ceil(TWO_PI / d));
   const dt = Math.PI / nr, dp = TWO_PI / nc;
@@ -140,23 +165,31 @@ export function skySampler(sky: SkyGrid, spacingRad: number): SkySampler {
   // rows are filled when first read: a site's beam sees only part of the sky
   const filled = new Uint8Array(nr + 1);
   const src = sky.values;
+  // sampler frame -> the sky's coordinates: S A^T
+  const S = sky.fromJ2000, A = axes, R = new Float64Array(9);
+  for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) R[3 * i + j] = S[3 * i] * A[3 * j] + S[3 * i + 1] * A[3 * j + 1] + S[3 * i + 2] * A[3 * j + 2];
   const cosP = new Float64Array(nc), sinP = new Float64Array(nc);
   for (let c = 0; c < nc; c++) { cosP[c] = Math.cos(c * dp); sinP[c] = Math.sin(c * dp); }
-  const fill = (r: number): void => {
+  const ensureRow = (r: number): void => {
+    if (filled[r] === 1) return;
     const t = r * dt, st = Math.sin(t), ct = Math.cos(t);
-    for (let c = 0; c < nc; c++) v[r * w + c] = sky.constant ?? interpRingVec(src, sky.nside, st * cosP[c], st * sinP[c], ct);
+    for (let c = 0; c < nc; c++) {
+      if (sky.constant !== undefined) { v[r * w + c] = sky.constant; continue; }
+      const x = st * cosP[c], y = st * sinP[c];
+      v[r * w + c] = interpRingVec(src, sky.nside, R[0] * x + R[1] * y + R[2] * ct, R[3] * x + R[4] * y + R[5] * ct, R[6] * x + R[7] * y + R[8] * ct);
+    }
     v[r * w + nc] = v[r * w];
     filled[r] = 1;
   };
   const it = 1 / dt, ip = 1 / dp;
   const out: SkySampler = {
-    nodes: v.length,
+    nodes: v.length, nr, nc, v, ensureRow,
     at(x, y, z) {
       const tq = Math.acos(z < -1 ? -1 : z > 1 ? 1 : z) * it;
       let r0 = Math.floor(tq);
       if (r0 >= nr) r0 = nr - 1;
-      if (filled[r0] === 0) fill(r0);
-      if (filled[r0 + 1] === 0) fill(r0 + 1);
+      if (filled[r0] === 0) ensureRow(r0);
+      if (filled[r0 + 1] === 0) ensureRow(r0 + 1);
       const fr = tq - r0;
       let pq = Math.atan2(y, x);
       if (pq < 0) pq += TWO_PI;
@@ -168,25 +201,83 @@ export function skySampler(sky: SkyGrid, spacingRad: number): SkySampler {
       return (1 - fr) * ((1 - fc) * v[a] + fc * v[a + 1]) + fr * ((1 - fc) * v[b] + fc * v[b + 1]);
     },
   };
-  byN.set(nr, out);
+  byN.set(key, out);
   return out;
 }
 
-/** The beam-weighted sky mean for one beam and one sky, on a lazily filled (zenith, psi) grid. */
+/**
+ * The grid's axes for a run: z along the body's mean rotation pole over the
+ * span (row-major rotation J2000 -> grid frame). A site fixed on a turning
+ * body then keeps its zenith at one colatitude of the grid (give or take the
+ * pole's own motion) and its local north pointing along the grid's meridian,
+ * so the samples fill a narrow band of rows and few turn bins, and each row is
+ * swept whole in longitude.
+ */
+export function gridAxes(frames: HorizonFrames): Float64Array {
+  const p = new Float64Array(3);
+  let zx = 0, zy = 0, zz = 0;
+  const m = Math.min(frames.n, 257);
+  for (let j = 0; j < m; j++) {
+    frames.pole(m === 1 ? 0 : Math.round((j * (frames.n - 1)) / (m - 1)), p);
+    zx += p[0]; zy += p[1]; zz += p[2];
+  }
+  const r = Math.hypot(zx, zy, zz);
+  if (!(r > 0)) return IDENTITY3;
+  zx /= r; zy /= r; zz /= r;
+  // x: perpendicular to z, from the J2000 axis least aligned with it
+  const ax = Math.abs(zx) <= Math.abs(zy) && Math.abs(zx) <= Math.abs(zz) ? 0 : Math.abs(zy) <= Math.abs(zz) ? 1 : 2;
+  const e = [0, 0, 0]; e[ax] = 1;
+  const d = e[0] * zx + e[1] * zy + e[2] * zz;
+  let xx = e[0] - d * zx, xy = e[1] - d * zy, xz = e[2] - d * zz;
+  const rx = Math.hypot(xx, xy, xz);
+  xx /= rx; xy /= rx; xz /= rx;
+  const yx = zy * xz - zz * xy, yy = zz * xx - zx * xz, yz = zx * xy - zy * xx;
+  return Float64Array.from([xx, xy, xz, yx, yy, yz, zx, zy, zz]);
+}
+
+/**
+ * gridAxes for a body over a span, from the body's rotation model alone (no
+ * track needed): the plan and the survey take the same axes for the same span,
+ * so their grids hold the same cells.
+ */
+export function gridAxesFor(body: BodyName, startMs: number, endMs: number): Float64Array {
+  const M = new Float64Array(9);
+  const m = 257;
+  const end = Math.max(endMs, startMs);
+  return gridAxes({
+    n: m,
+    at() { throw new Error('gridAxesFor: pole only'); },
+    pole(i, out) {
+      bodyToJ2000(body, aeTime(startMs + ((end - startMs) * i) / (m - 1)), M);
+      const r = 1 / Math.hypot(M[2], M[5], M[8]);
+      out[0] = M[2] * r; out[1] = M[5] * r; out[2] = M[8] * r;
+    },
+  });
+}
+
+/** The beam-weighted sky mean for one beam and one sky, on a lazily filled (zenith, psi) grid in the grid's axes. */
 export interface AntennaTempGrid {
   /** zenith grid spacing (radians) and psi bins */
   zenithStepRad: number;
   nPsi: number;
   quad: BeamQuadrature;
+  /** the grid's frame: row-major rotation J2000 -> grid coordinates */
+  axes: Float64Array;
   /** cells computed so far */
   readonly cells: number;
   /**
    * Beam-weighted sky mean (K) for a sample whose zenith has colatitude theta,
-   * right ascension phi (J2000) and whose local north is turned psi from the
-   * direction of the celestial north pole toward east (see zenithAngles).
+   * longitude phi in the grid's frame and whose local north is turned psi from
+   * the direction of the grid's z axis toward east (zenithAngles of the frame
+   * rotated into the grid's axes).
    */
   atAngles(theta: number, phi: number, psi: number): number;
-  /** the same for a local frame as HorizonFrames.at writes it */
+  /**
+   * atAngles for samples 0 .. count-1 of a block (angle arrays), into dst; with `seg`, only
+   * the samples whose seg[segOffset + j] is `g` (a plan segment's grid); NaN theta gives NaN
+   */
+  atAnglesBlock(theta: Float64Array, phi: Float64Array, psi: Float64Array, count: number, dst: Float64Array, seg: Uint8Array | null, segOffset: number, g: number): void;
+  /** the same for a local frame as HorizonFrames.at writes it (J2000) */
   at(frame: Float64Array): number;
   /** the same by a direct beam sum in that exact frame with the map's own interpolation (the reference) */
   direct(frame: Float64Array): number;
@@ -195,16 +286,34 @@ export interface AntennaTempGrid {
 /** Zenith colatitude, right ascension and north turn psi of a local frame (J2000); written into out[0..2]. */
 export function zenithAngles(f: Float64Array, out: Float64Array): void {
   const ux = f[6], uy = f[7], uz = f[8];
-  const theta = Math.acos(uz < -1 ? -1 : uz > 1 ? 1 : uz);
+  const rho = Math.sqrt(ux * ux + uy * uy);
+  const theta = Math.atan2(rho, uz);
   let phi = Math.atan2(uy, ux);
   if (phi < 0) phi += TWO_PI;
-  const sp = Math.sin(phi), cp = Math.cos(phi), ct = Math.cos(theta), st = Math.sin(theta);
+  // sin and cos of phi and theta from the zenith itself (at a pole phi = 0)
+  const sp = rho > 0 ? uy / rho : 0, cp = rho > 0 ? ux / rho : 1;
+  const ct = uz / Math.sqrt(rho * rho + uz * uz), st = rho / Math.sqrt(rho * rho + uz * uz);
   // reference north n0 = (-cos t cos p, -cos t sin p, sin t), east e0 = (-sin p, cos p, 0)
   const nn = -ct * cp * f[3] - ct * sp * f[4] + st * f[5];
   const ne = -sp * f[3] + cp * f[4];
   let psi = Math.atan2(ne, nn);
   if (psi < 0) psi += TWO_PI;
   out[0] = theta; out[1] = phi; out[2] = psi;
+}
+
+function sameAxes(a: Float64Array, b: Float64Array): boolean {
+  for (let k = 0; k < 9; k++) if (a[k] !== b[k]) return false;
+  return true;
+}
+
+/** The local frame f (J2000 columns) in the grid's axes A: out = A f, column by column. */
+export function frameInAxes(A: Float64Array, f: Float64Array, out: Float64Array): void {
+  for (let c = 0; c < 3; c++) {
+    const x = f[3 * c], y = f[3 * c + 1], z = f[3 * c + 2];
+    out[3 * c] = A[0] * x + A[1] * y + A[2] * z;
+    out[3 * c + 1] = A[3] * x + A[4] * y + A[5] * z;
+    out[3 * c + 2] = A[6] * x + A[7] * y + A[8] * z;
+  }
 }
 
 /** Local frame (east, north, up columns as HorizonFrames writes them) of zenith (theta, phi) turned psi. */
@@ -218,12 +327,23 @@ export function frameOfAngles(theta: number, phi: number, psi: number, out: Floa
   out[6] = ux; out[7] = uy; out[8] = uz;
 }
 
-export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFree: boolean; quad?: BeamQuadrature } = { maskFree: true }): AntennaTempGrid {
+// Catmull-Rom weights at fraction t
+function crW(t: number, out: Float64Array): void {
+  const t2 = t * t, t3 = t2 * t;
+  out[0] = 0.5 * (-t3 + 2 * t2 - t); out[1] = 0.5 * (3 * t3 - 5 * t2 + 2);
+  out[2] = 0.5 * (-3 * t3 + 4 * t2 + t); out[3] = 0.5 * (t3 - t2);
+}
+
+export function antennaTempGrid(
+  beam: AntennaBeam, sky: SkyGrid,
+  opts: { maskFree: boolean; quad?: BeamQuadrature; axes?: Float64Array } = { maskFree: true },
+): AntennaTempGrid {
   const narrow = stepWidthRad(beam);
-  const quad = opts.quad ?? beamQuadrature(beam);
+  const quad = opts.quad ?? beamQuadrature(beam, quadSpacingRad(beam, opts.maskFree));
+  const axes = opts.axes ?? IDENTITY3;
   const skyRes = Math.sqrt((4 * Math.PI) / nside2npix(sky.nside));
   // finer than the map's pixel where the beam is narrow enough to see the difference
-  const sampler = skySampler(sky, Math.min(skyRes / 2, Math.max(skyRes / SAMPLER_PER_PIXEL, narrow / 8)));
+  const sampler = skySampler(sky, Math.min(skyRes / 2, Math.max(skyRes / SAMPLER_PER_PIXEL, narrow / 8)), axes);
   const symmetric = symmetricAboutZenith(beam, opts.maskFree);
   // cubic interpolation (symmetric beams) keeps the same accuracy on a coarser grid
   const zStep0 = Math.max(narrow, skyRes) / (symmetric ? GRID_PER_WIDTH_CUBIC : GRID_PER_WIDTH);
@@ -234,15 +354,15 @@ export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFre
     : Math.min(720, Math.max(8, Math.ceil(TWO_PI / (dTheta / Math.max(0.05, Math.sin(Math.min(Math.PI / 2, quad.maxZenithRad)))))));
   const dPsi = TWO_PI / nPsi;
   // rows at theta_i = (i + 0.5) dTheta; each with nodes regular in phi, no coarser than the psi bins near the poles
-  const rowN = new Int32Array(nRows), rowStart = new Int32Array(nRows + 1);
+  const rowN = new Int32Array(nRows);
   for (let i = 0; i < nRows; i++) {
     const st = Math.sin((i + 0.5) * dTheta);
     rowN[i] = Math.max(4, Math.ceil((TWO_PI * st) / dTheta), nPsi > 1 ? nPsi : 0);
-    rowStart[i + 1] = rowStart[i] + rowN[i];
   }
-  const store: (Float64Array | undefined)[] = new Array(rowStart[nRows]);
+  // strips: every column of one row at one turn bin, computed together; value of column c at [c + 1],
+  // padded with the wrapped neighbours ([0] = column n - 1, [n + 1] = column 0, [n + 2] = column 1)
+  const strips: (Float64Array | undefined)[] = new Array(nRows * nPsi);
   const S = sky.fromJ2000;
-  const fr = new Float64Array(9);
   const M = new Float64Array(9);
   const { x: qx, y: qy, z: qz, w: qw, n } = quad;
   let cells = 0;
@@ -266,110 +386,118 @@ export function antennaTempGrid(beam: AntennaBeam, sky: SkyGrid, opts: { maskFre
   const fromMap = (x: number, y: number, z: number) => interpRingVec(sky.values, sky.nside, x, y, z);
   const exact = sky.constant !== undefined ? () => sky.constant! : fromMap;
 
-  const cell = (row: number, col: number, j: number): number => {
-    const idx = rowStart[row] + col;
-    let r = store[idx];
-    if (!r) { r = new Float64Array(nPsi).fill(NaN); store[idx] = r; }
-    let v = r[j];
-    if (v !== v) {
-      frameOfAngles((row + 0.5) * dTheta, (col * TWO_PI) / rowN[row], j * dPsi, fr);
-      v = r[j] = beamSum(fr, sampler.at);
-      cells++;
+  // The strip of row `row`, turn bin j: the beam's points placed once for the frame at longitude 0,
+  // then every column is the same sampler lookup shifted by a fixed number of sampler columns.
+  const sv = sampler.v, snr = sampler.nr, snc = sampler.nc, sw = snc + 1;
+  const sIt = snr / Math.PI, sIp = snc / TWO_PI;
+  const fr0 = new Float64Array(9);
+  let acc = new Float64Array(0), accW = new Float64Array(0);
+  const computeStrip = (row: number, j: number): Float64Array => {
+    const N = rowN[row];
+    if (acc.length < N) { acc = new Float64Array(N); accW = new Float64Array(N); }
+    acc.fill(0, 0, N); accW.fill(0, 0, N);
+    frameOfAngles((row + 0.5) * dTheta, 0, j * dPsi, fr0);
+    const step = snc / N; // sampler columns per grid column
+    for (let k = 0; k < n; k++) {
+      const lx = qx[k], ly = qy[k], lz = qz[k];
+      const x = fr0[0] * lx + fr0[3] * ly + fr0[6] * lz;
+      const y = fr0[1] * lx + fr0[4] * ly + fr0[7] * lz;
+      const z = fr0[2] * lx + fr0[5] * ly + fr0[8] * lz;
+      const tq = Math.acos(z < -1 ? -1 : z > 1 ? 1 : z) * sIt;
+      let r0 = Math.floor(tq);
+      if (r0 >= snr) r0 = snr - 1;
+      sampler.ensureRow(r0); sampler.ensureRow(r0 + 1);
+      const ft = tq - r0, gt = 1 - ft;
+      let p0 = Math.atan2(y, x);
+      if (p0 < 0) p0 += TWO_PI;
+      p0 *= sIp;
+      const wk = qw[k];
+      const a0 = r0 * sw, b0 = a0 + sw;
+      for (let c = 0; c < N; c++) {
+        let q = p0 + c * step;
+        if (q >= snc) q -= snc;
+        let c0 = Math.floor(q);
+        if (c0 >= snc) c0 = snc - 1;
+        const fc = q - c0, gc = 1 - fc;
+        const a = a0 + c0, b = b0 + c0;
+        const t = gt * (gc * sv[a] + fc * sv[a + 1]) + ft * (gc * sv[b] + fc * sv[b + 1]);
+        if (t === t) { acc[c] += wk * t; accW[c] += wk; }
+      }
     }
-    return v;
+    const out = new Float64Array(N + 3);
+    for (let c = 0; c < N; c++) out[c + 1] = accW[c] > 0 ? acc[c] / accW[c] : NaN;
+    out[0] = out[N]; out[N + 1] = out[1]; out[N + 2] = out[2];
+    cells += N;
+    strips[row * nPsi + j] = out;
+    return out;
   };
-  // consecutive samples mostly fall in the same grid block: its 8 corner values are kept
-  let kRow = -1, kCa = -1, kCb = -1, kJ = -1;
-  let a00 = 0, a01 = 0, a10 = 0, a11 = 0, b00 = 0, b01 = 0, b10 = 0, b11 = 0;
-  // a beam with one turn bin (circular, at the zenith): cubic (Catmull-Rom) in colatitude and right
-  // ascension over 4 x 4 nodes, so the grid error falls as the step^4
-  const cr = (t: number, out: Float64Array): void => {
-    const t2 = t * t, t3 = t2 * t;
-    out[0] = 0.5 * (-t3 + 2 * t2 - t); out[1] = 0.5 * (3 * t3 - 5 * t2 + 2);
-    out[2] = 0.5 * (-3 * t3 + 4 * t2 + t); out[3] = 0.5 * (t3 - t2);
-  };
+  const strip = (row: number, j: number): Float64Array => strips[row * nPsi + j] ?? computeStrip(row, j);
+
+  // a beam with one turn bin (circular, at the zenith): cubic (Catmull-Rom) in colatitude and
+  // longitude over 4 x 4 nodes, so the grid error falls as the step^4
   const wr = new Float64Array(4), wc = new Float64Array(4);
-  const rowVals = new Float64Array(4);
-  let cKey0 = -1, cKey1 = -1, cKey2 = -1, cKey3 = -1, cKeyR = -1;
-  const blk = new Float64Array(16);
-  const onRowCubic = (row: number, phi: number, slot: number): number => {
+  const onRowCubic = (row: number, phi: number): number => {
     const nr = rowN[row];
     const q = (phi * nr) / TWO_PI;
     let c = Math.floor(q);
-    const f = q - c;
-    if (c >= nr) c -= nr;
-    const key = row * 1048576 + c;
-    const k = slot === 0 ? cKey0 : slot === 1 ? cKey1 : slot === 2 ? cKey2 : cKey3;
-    if (k !== key) {
-      for (let m = -1; m <= 2; m++) {
-        let cc = c + m;
-        if (cc < 0) cc += nr; else if (cc >= nr) cc -= nr;
-        blk[4 * slot + m + 1] = cell(row, cc, 0);
-      }
-      if (slot === 0) cKey0 = key; else if (slot === 1) cKey1 = key; else if (slot === 2) cKey2 = key; else cKey3 = key;
-    }
-    cr(f, wc);
-    return wc[0] * blk[4 * slot] + wc[1] * blk[4 * slot + 1] + wc[2] * blk[4 * slot + 2] + wc[3] * blk[4 * slot + 3];
+    if (c >= nr) c = nr - 1;
+    crW(q - c, wc);
+    const v = strip(row, 0);
+    // column c sits at v[c + 1]: nodes c - 1 .. c + 2 at v[c] .. v[c + 3]
+    return wc[0] * v[c] + wc[1] * v[c + 1] + wc[2] * v[c + 2] + wc[3] * v[c + 3];
   };
   const atAnglesCubic = (theta: number, phi: number): number => {
     const tq = theta / dTheta - 0.5;
-    let r0 = Math.floor(tq);
+    const r0 = Math.floor(tq);
     const ft = tq - r0;
     if (r0 < 1 || r0 > nRows - 3) {
       // next to a pole: linear between the two nearest rows (clamped)
       const rA = Math.max(0, Math.min(nRows - 1, r0)), rB = Math.max(0, Math.min(nRows - 1, r0 + 1));
       const t = rA === rB ? 0 : Math.max(0, Math.min(1, ft));
-      cKeyR = -1; cKey0 = cKey1 = cKey2 = cKey3 = -1;
-      return (1 - t) * onRowCubic(rA, phi, 1) + t * onRowCubic(rB, phi, 2);
+      return (1 - t) * onRowCubic(rA, phi) + t * onRowCubic(rB, phi);
     }
-    if (r0 !== cKeyR) { cKeyR = r0; cKey0 = cKey1 = cKey2 = cKey3 = -1; }
-    for (let m = 0; m < 4; m++) rowVals[m] = onRowCubic(r0 - 1 + m, phi, m);
-    cr(ft, wr);
-    return wr[0] * rowVals[0] + wr[1] * rowVals[1] + wr[2] * rowVals[2] + wr[3] * rowVals[3];
+    crW(ft, wr);
+    const w0 = wr[0], w1 = wr[1], w2 = wr[2], w3 = wr[3];
+    return w0 * onRowCubic(r0 - 1, phi) + w1 * onRowCubic(r0, phi) + w2 * onRowCubic(r0 + 1, phi) + w3 * onRowCubic(r0 + 2, phi);
+  };
+  // linear in each angle over the 8 corners (beams that are not symmetric about the zenith)
+  const onRowLinear = (row: number, j0: number, j1: number, fj: number, phi: number): number => {
+    const nr = rowN[row];
+    const q = (phi * nr) / TWO_PI;
+    let c = Math.floor(q);
+    if (c >= nr) c = nr - 1;
+    const fc = q - c;
+    const u = strip(row, j0), v = strip(row, j1);
+    return (1 - fj) * ((1 - fc) * u[c + 1] + fc * u[c + 2]) + fj * ((1 - fc) * v[c + 1] + fc * v[c + 2]);
   };
   const atAngles = (theta: number, phi: number, psi: number): number => {
     if (nPsi === 1) return atAnglesCubic(theta, phi);
-    let j0 = 0, j1 = 0, fj = 0;
-    if (nPsi > 1) {
-      const q = psi / dPsi;
-      j0 = Math.floor(q);
-      fj = q - j0;
-      if (j0 >= nPsi) j0 -= nPsi;
-      j1 = j0 + 1 === nPsi ? 0 : j0 + 1;
-    }
+    const q = psi / dPsi;
+    let j0 = Math.floor(q);
+    const fj = q - j0;
+    if (j0 >= nPsi) j0 -= nPsi;
+    if (j0 < 0) j0 += nPsi;
+    const j1 = j0 + 1 === nPsi ? 0 : j0 + 1;
     const tq = theta / dTheta - 0.5;
-    let rA: number, rB: number, ft: number;
-    if (tq <= 0) { rA = rB = 0; ft = 0; } else if (tq >= nRows - 1) { rA = rB = nRows - 1; ft = 0; } else { rA = Math.floor(tq); rB = rA + 1; ft = tq - rA; }
-    const na = rowN[rA], nb = rowN[rB];
-    const qa = (phi * na) / TWO_PI, qb = (phi * nb) / TWO_PI;
-    let ca = Math.floor(qa), cb = Math.floor(qb);
-    const fa = qa - ca, fb = qb - cb;
-    if (ca >= na) ca -= na;
-    if (cb >= nb) cb -= nb;
-    const rowKey = rA * 2 + (rB === rA ? 1 : 0);
-    if (rowKey !== kRow || ca !== kCa || cb !== kCb || j0 !== kJ) {
-      const ca1 = ca + 1 === na ? 0 : ca + 1, cb1 = cb + 1 === nb ? 0 : cb + 1;
-      a00 = cell(rA, ca, j0); a10 = cell(rA, ca1, j0);
-      b00 = cell(rB, cb, j0); b10 = cell(rB, cb1, j0);
-      if (nPsi > 1) { a01 = cell(rA, ca, j1); a11 = cell(rA, ca1, j1); b01 = cell(rB, cb, j1); b11 = cell(rB, cb1, j1); }
-      kRow = rowKey; kCa = ca; kCb = cb; kJ = j0;
-    }
-    let va: number, vb: number;
-    if (nPsi === 1) {
-      va = (1 - fa) * a00 + fa * a10;
-      vb = (1 - fb) * b00 + fb * b10;
-    } else {
-      va = (1 - fa) * ((1 - fj) * a00 + fj * a01) + fa * ((1 - fj) * a10 + fj * a11);
-      vb = (1 - fb) * ((1 - fj) * b00 + fj * b01) + fb * ((1 - fj) * b10 + fj * b11);
-    }
-    return ft === 0 ? va : (1 - ft) * va + ft * vb;
+    if (tq <= 0) return onRowLinear(0, j0, j1, fj, phi);
+    if (tq >= nRows - 1) return onRowLinear(nRows - 1, j0, j1, fj, phi);
+    const rA = Math.floor(tq), ft = tq - rA;
+    return (1 - ft) * onRowLinear(rA, j0, j1, fj, phi) + ft * onRowLinear(rA + 1, j0, j1, fj, phi);
   };
-  const ang = new Float64Array(3);
+  const ang = new Float64Array(3), fa = new Float64Array(9);
+  // one call per block of samples: the loop stays inside this grid's own functions
+  const atAnglesBlock = (th: Float64Array, ph: Float64Array, ps: Float64Array, count: number, dst: Float64Array, seg: Uint8Array | null, segOffset: number, g: number): void => {
+    for (let j = 0; j < count; j++) {
+      if (seg !== null && seg[segOffset + j] !== g) continue;
+      const t = th[j];
+      dst[j] = t !== t ? NaN : nPsi === 1 ? atAnglesCubic(t, ph[j]) : atAngles(t, ph[j], ps[j]);
+    }
+  };
   return {
-    zenithStepRad: dTheta, nPsi, quad,
+    zenithStepRad: dTheta, nPsi, quad, axes,
     get cells() { return cells; },
-    atAngles,
-    at: (f) => { zenithAngles(f, ang); return atAngles(ang[0], ang[1], ang[2]); },
+    atAngles, atAnglesBlock,
+    at: (f) => { frameInAxes(axes, f, fa); zenithAngles(fa, ang); return atAngles(ang[0], ang[1], ang[2]); },
     direct: (f) => beamSum(f, exact),
   };
 }
@@ -391,6 +519,7 @@ export function zenithOnlyFrames(track: { n: number; zx: Float64Array; zy: Float
       out[6] = ux; out[7] = uy; out[8] = uz;
     },
     pole() { throw new Error('zenithOnlyFrames: no pole (zenith-only frames)'); },
+    up(i, out) { out[0] = track.zx[i]; out[1] = track.zy[i]; out[2] = track.zz[i]; },
   };
 }
 
@@ -425,17 +554,46 @@ export function* antennaTempStage(
   const n = frames.n, nf = grids.length;
   const out = grids.map(() => new Float32Array(n));
   const gf = grids.map((gs) => gs.map((g) => g.quad.groundWeight / (g.quad.groundWeight + g.quad.skyWeight || 1)));
-  const f = new Float64Array(9), a = new Float64Array(3);
-  for (let i = 0; i < n; i++) {
-    if (only && !only[i]) {
-      for (let k = 0; k < nf; k++) out[k][i] = NaN;
-      continue;
+  // every grid of a run shares its axes, so a sample's angles are worked out once
+  const A = nf ? grids[0][0].axes : IDENTITY3;
+  if (grids.some((gs) => gs.some((g) => !sameAxes(g.axes, A)))) throw new Error('antennaTempStage: the grids of one run must share their axes');
+  // beams symmetric about the zenith need only the zenith, not the whole frame
+  const zenithOnly = frames.up !== undefined && grids.every((gs) => gs.every((g) => g.nPsi === 1));
+  const B = 4096;
+  const f = new Float64Array(9), fa = new Float64Array(9), a = new Float64Array(3), u = new Float64Array(3);
+  const th = new Float64Array(B), ph = new Float64Array(B), ps = new Float64Array(B), dst = new Float64Array(B);
+  // the angles of a block of samples (a plain function: the generator optimises less well)
+  const angles = (i0: number, count: number): void => {
+    for (let j = 0; j < count; j++) {
+      const i = i0 + j;
+      // a sample left out (`only`): NaN angles, which every grid passes on as NaN
+      if (only && !only[i]) { th[j] = NaN; continue; }
+      if (zenithOnly) {
+        frames.up!(i, u);
+        const x = A[0] * u[0] + A[1] * u[1] + A[2] * u[2], y = A[3] * u[0] + A[4] * u[1] + A[5] * u[2], z = A[6] * u[0] + A[7] * u[1] + A[8] * u[2];
+        th[j] = Math.atan2(Math.sqrt(x * x + y * y), z);
+        const p = Math.atan2(y, x);
+        ph[j] = p < 0 ? p + TWO_PI : p;
+        ps[j] = 0;
+      } else {
+        frames.at(i, f);
+        frameInAxes(A, f, fa);
+        zenithAngles(fa, a);
+        th[j] = a[0]; ph[j] = a[1]; ps[j] = a[2];
+      }
     }
-    frames.at(i, f);
-    zenithAngles(f, a);
-    const g = segOf ? segOf[i] : 0;
-    for (let k = 0; k < nf; k++) out[k][i] = withGround(grids[k][g].atAngles(a[0], a[1], a[2]), gf[k][g], groundTempK);
-    if ((i & 1023) === 1023) yield i / n;
+  };
+  const store = (o: Float32Array, i0: number, count: number, gfk: number[]): void => {
+    for (let j = 0; j < count; j++) o[i0 + j] = withGround(dst[j], gfk[segOf ? segOf[i0 + j] : 0], groundTempK);
+  };
+  for (let i0 = 0; i0 < n; i0 += B) {
+    const count = Math.min(B, n - i0);
+    angles(i0, count);
+    for (let k = 0; k < nf; k++) {
+      for (let g = 0; g < grids[k].length; g++) grids[k][g].atAnglesBlock(th, ph, ps, count, dst, segOf, i0, g);
+      store(out[k], i0, count, gf[k]);
+    }
+    yield (i0 + count) / n;
   }
   return {
     t_ant_k: out,
