@@ -2,7 +2,7 @@
 // with the sky: issue 12 item 6).
 //
 // Two per-site paths:
-//  - the plain zenith dish (antenna/pointing.ts isPlainZenithDish): the
+//  - the plain zenith dish without frequency-dependent limits (surveyTakesDishPath): the
 //    shared-sample path described below;
 //  - every other antenna (elliptical, dipole, pattern, a tilted boresight,
 //    feeds, a pointing plan): the plan's own stages per site (track, usable
@@ -568,6 +568,18 @@ function sameWeights(a: Float64Array, b: Float64Array, usable: Uint8Array): bool
 }
 
 /**
+ * Whether a site survey of this scenario takes the zenith dish's shared-sample
+ * path: a plain zenith dish whose usable time does not depend on frequency.
+ * That path models the Sun's and the Earth's elevation limits and the mask
+ * only; the ionosphere's cut-off, diffraction over the rim and the Sun's
+ * distance from the beam go through the plan's own stages (the general path).
+ */
+export function surveyTakesDishPath(s: Scenario): boolean {
+  const c = s.constraints;
+  return isPlainZenithDish(s) && !c.ionosphere && !c.diffraction && c.sun_min_separation_deg == null;
+}
+
+/**
  * The survey stage: the sites of the grid held by the shard, in index order.
  * Yields overall progress in [0, 1] (at least every ~50k items of work) and
  * returns typed arrays of the figures. Throws a RangeError naming the option
@@ -583,7 +595,7 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   const noiseTarget = opts.noiseSamplePixels ?? NOISE_SAMPLE_PIXELS;
   if (!(Number.isInteger(noiseTarget) && noiseTarget >= 1)) throw new RangeError(`noiseSamplePixels must be an integer >= 1, got ${noiseTarget}`);
   const held = sites.length;
-  const dish = isPlainZenithDish(s);
+  const dish = surveyTakesDishPath(s);
   const mhzOf = (m: number) => s.telescope.frequencies_mhz[m];
   // the dish path's beam profiles (hit map, covered sky, noise gather); the general path uses the antenna model itself
   const allBeams = dish ? s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m!, s.telescope.beam)) : [];

@@ -1,6 +1,6 @@
 import type { Scenario } from '../../core/types';
 import { estimateRun } from '../../core/limits';
-import { isPlainZenithDish } from '../../core/antenna/pointing';
+import { surveyTakesDishPath } from '../../core/survey';
 import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core/survey';
 
 // What a survey will cost, stated before it runs and corrected while it runs.
@@ -55,7 +55,7 @@ export const SURVEY_ANY_SETUP_MS = 3000;
 
 /** Whether a scenario's survey takes the general path (the plan's stages per site), much slower than the zenith dish's. */
 export function surveyGeneralPath(s: Scenario): boolean {
-  return !isPlainZenithDish(s);
+  return !surveyTakesDishPath(s);
 }
 
 /** The fitted time per site (ms, one thread) for a scenario. */
