@@ -64,10 +64,18 @@ export const QUAD_PER_WIDTH = 6;
  */
 export const SYMMETRIC_MAX_QUAD_RAD = (1.25 * Math.PI) / 180;
 
+/**
+ * The widest quadrature spacing for any other beam: the galaxy model's thin
+ * disk makes the plane about a degree wide, and 2.5 deg spacing aliased it by
+ * up to 1% for a dipole at 50 MHz (0.44% at 1.7 deg, 0.24% at 1.5 deg, where
+ * the dipole's cells cost half as much again).
+ */
+export const MAX_QUAD_RAD = (1.7 * Math.PI) / 180;
+
 /** The quadrature spacing antennaTempGrid uses for a beam. */
 export function quadSpacingRad(beam: AntennaBeam, maskFree: boolean): number {
   const r = stepWidthRad(beam) / QUAD_PER_WIDTH;
-  return symmetricAboutZenith(beam, maskFree) ? Math.min(r, SYMMETRIC_MAX_QUAD_RAD) : r;
+  return Math.min(r, symmetricAboutZenith(beam, maskFree) ? SYMMETRIC_MAX_QUAD_RAD : MAX_QUAD_RAD);
 }
 /** Zenith grid spacing per width for a beam symmetric about the zenith (cubic interpolation). */
 export const GRID_PER_WIDTH_CUBIC = 4;
