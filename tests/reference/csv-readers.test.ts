@@ -71,7 +71,8 @@ describe.skipIf(!have && !inCi)('CSV files open with default settings in astropy
         names: ['site', 'lat_deg', 'lon_deg', 'sky_fraction_covered_8mhz', 'sky_fraction_covered_16mhz', 'usable_h',
           'usable_h_beam_in_band_8mhz', 'usable_h_beam_in_band_16mhz', 'noise_median_k_8mhz', 'noise_median_k_16mhz',
           'sun_down_h', 'earth_down_h', 'usable_h_zenith_in_band', 'usable_h_zenith_near_center',
-          'usable_h_beam_near_center_8mhz', 'usable_h_beam_near_center_16mhz'],
+          'usable_h_beam_near_center_8mhz', 'usable_h_beam_near_center_16mhz',
+          't_ant_median_k_8mhz', 't_ant_median_k_16mhz'],
         rows: 12 * 24,
       },
     };
