@@ -168,6 +168,14 @@ test('a bad antenna value is named by its label with the range, and what was typ
 
   // a pattern table that does not load leaves the model's state alone and says why
   await page.getByLabel('Beam model').selectOption('pattern');
+  // with no table yet the summary line is the field's problem, styled as every other field message (colour and size)
+  const summary = page.getByTestId('pattern-summary');
+  await expect(summary).toHaveAttribute('role', 'alert');
+  await expect(summary).toContainText('No pattern table yet: load one from a CSV file (nothing is computed until one is loaded).');
+  const look = (el: Element) => { const c = getComputedStyle(el); return `${c.color} ${c.fontSize}`; };
+  const feedMsg = page.getByRole('alert').filter({ hasText: '"Extra feed 1 x offset (°)"' });
+  expect(await summary.evaluate(look)).toBe(await feedMsg.evaluate(look));
+  expect(await summary.evaluate((el) => getComputedStyle(el).color)).toBe('rgb(179, 38, 30)'); // --error, #b3261e in styles.css
   await page.getByLabel('Pattern table CSV file').setInputFiles({ name: 'holes.csv', mimeType: 'text/csv', buffer: Buffer.from('frequency_mhz,zenith_deg,azimuth_deg,gain_db\n8,0,0,0\n8,0,90,0\n8,90,0,-3\n') });
   await expect(page.getByRole('alert').filter({ hasText: 'holes.csv was not loaded' })).toContainText('no gain for frequency 8 MHz, zenith 90°, azimuth 90°');
   await page.getByLabel('Pattern table CSV file').setInputFiles({ name: 'flat.csv', mimeType: 'text/csv', buffer: Buffer.from('frequency_mhz,zenith_deg,azimuth_deg,gain_db\n5,0,0,0\n5,90,0,-6\n20,0,0,0\n20,90,0,-9\n') });

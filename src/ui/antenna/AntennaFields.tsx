@@ -180,7 +180,8 @@ function PatternLoader({ draft, messages, onTable }: {
   };
   return (
     <div className="pattern-load">
-      <p className={missing ? 'table-summary field-msg' : 'table-summary'} role={missing ? 'alert' : undefined} data-testid="pattern-summary">
+      {/* the missing table is a field problem like any other: the plain field-msg style (.table-summary would mute its colour) */}
+      <p className={missing ? 'field-msg' : 'table-summary'} role={missing ? 'alert' : undefined} data-testid="pattern-summary">
         {t
           ? `Pattern table from ${draft.ant.tableSource}: ${t.frequencies_mhz.length} frequenc${t.frequencies_mhz.length === 1 ? 'y' : 'ies'} (${t.frequencies_mhz[0]}–${t.frequencies_mhz[t.frequencies_mhz.length - 1]} MHz), ${t.zenith_deg.length} zenith angles to ${t.zenith_deg[t.zenith_deg.length - 1]}°, ${t.azimuth_deg.length} azimuths.`
           : `No pattern table yet: load one from a CSV file${missing ? ' (nothing is computed until one is loaded)' : ''}.`}
