@@ -147,6 +147,8 @@ test('antenna_temp.csv and depth_area.csv from the app equal the CLI files; the 
 });
 
 test('a healpy-written map picked in the Sky section computes, and its T_ant equals the CLI summary.json with the same file', async ({ page }) => {
+  // under CI=true a missing healpy throws here (a failure, never a skip)
+  test.skip(!requirePython(['healpy', 'numpy'], 'the healpy-written-map browser test'), 'healpy is not installed (a failure under CI=true)');
   const dir = mkdtempSync(join(tmpdir(), 'swathe-e2e-skymap-'));
   const fits = join(dir, 'invented408.fits');
   // an invented galactic sky at 408 MHz, written by healpy (an outside writer): 20 K + 80 K toward the plane
