@@ -1,4 +1,4 @@
-import { test, expect } from '@playwright/test';
+import { test, expect, type Locator } from '@playwright/test';
 import { readFileSync } from 'node:fs';
 import { SHORT, urlFor, guardHosts, waitForMap, mapHash, drawCount, MAP } from './helpers';
 
@@ -56,4 +56,53 @@ test('comparison: the same sky overlaps fully, a moved site shows a difference m
   await page.getByRole('button', { name: 'Unpin A' }).click();
   await expect(page.getByTestId('compare-panel')).toHaveCount(0);
   await expect(page.locator(MAP)).not.toHaveAttribute('aria-label', /difference/i);
+});
+
+test('comparison: the targets of A and B side by side, each plan\'s figures as its own targets table gave them; a target only B has is marked on the difference map', async ({ page }) => {
+  const n = SHORT.telescope.frequencies_mhz.length;
+  // the targets spec's target: on the demo site's zenith track in usable time, so it has hours in the beam
+  await page.goto(urlFor({ ...SHORT, targets: [{ name: 'Cold patch, south', l_deg: 230.5, b_deg: 21.9 }] }));
+  await waitForMap(page);
+  const figures = async (row: Locator) => ({
+    hours: await row.getAttribute('data-hours'), exposure: await row.getAttribute('data-exposure'),
+    tant: await row.getAttribute('data-tant'), noise: await row.getAttribute('data-noise'),
+  });
+  const own = (k: number) => page.locator('.results-sec').getByTestId(`target-result-0-${k}`);
+  const planA = await Promise.all([...Array(n).keys()].map((k) => figures(own(k))));
+  expect(Number(planA[0].hours)).toBeGreaterThan(0);
+  await page.getByRole('button', { name: 'Pin this result as A' }).click();
+  // B: the site moved 20 degrees north, so the target's figures change
+  await page.getByLabel('Latitude', { exact: true }).fill('-3.5');
+  await expect(page.getByTestId('result-title')).toContainText('Moon 3.50° S', { timeout: 60_000 });
+  await waitForMap(page);
+  const planB = await Promise.all([...Array(n).keys()].map((k) => figures(own(k))));
+  expect(planB.map((f) => f.hours)).not.toEqual(planA.map((f) => f.hours));
+  const table = page.getByTestId('compare-targets-table');
+  await expect(table).toContainText('Cold patch, south');
+  await expect(page.locator('[data-testid^="compare-target-0-"]')).toHaveCount(n);
+  for (let k = 0; k < n; k++) {
+    const row = page.getByTestId(`compare-target-0-${k}`);
+    await expect(row).toHaveAttribute('data-mhz', String(SHORT.telescope.frequencies_mhz[k]));
+    for (const [key, attr] of [['hours', 'hours'], ['exposure', 'exposure'], ['tant', 'tant'], ['noise', 'noise']] as const) {
+      await expect(row).toHaveAttribute(`data-${attr}-a`, planA[k][key] ?? '');
+      await expect(row).toHaveAttribute(`data-${attr}-b`, planB[k][key] ?? '');
+    }
+  }
+  // a target only B has: its A cells say so, and the difference map marks it beside A's
+  await page.getByRole('button', { name: 'Add target' }).click();
+  await page.getByLabel('Target 2 name').fill('New in B');
+  await page.getByLabel('Target 2 frame').selectOption('eq');
+  await page.getByLabel('Target 2 RA (°)').fill('150.25');
+  await page.getByLabel('Target 2 Dec (°)').fill('-23.5');
+  await expect(page.locator('[data-testid^="compare-target-1-"]')).toHaveCount(n, { timeout: 60_000 });
+  await waitForMap(page);
+  const added = page.getByTestId('compare-target-1-0');
+  await expect(added).toHaveAttribute('data-name', 'New in B');
+  await expect(added).toHaveAttribute('data-hours-a', '');
+  await expect(added).toContainText('only in B');
+  await expect(added).toContainText('n/a');
+  await page.getByLabel('Map B − A').check();
+  await expect(page.locator(MAP)).toHaveAttribute('aria-label', /difference/i);
+  // the difference map is drawn on plan A, which has one target: B's own is marked as well
+  await expect(page.getByTestId('sky-map-legend')).toContainText('Targets (2,');
 });

@@ -1,12 +1,13 @@
 import type { PlanResult } from '../../core/types';
 import { ResultsTable } from '../results/ResultsTable';
 import { overlapAt } from './overlap';
+import { CompareTargets } from './CompareTargets';
 import { ScrollCue } from '../ScrollCue';
 import { percent, sig } from '../format';
 import { bodyLabel, latLabel, lonLabel } from '../caption';
 
 // Plan A (pinned) against plan B (the current result): overlap of the covered
-// sky per frequency and both tables side by side.
+// sky per frequency, both tables side by side, and the targets' figures of both.
 
 function label(r: PlanResult): string {
   const s = r.scenario;
@@ -58,6 +59,7 @@ export function ComparePanel({ a, b, freqIndex, onSelect, onUnpin }: {
         <div><h3>A</h3><ResultsTable result={a} selected={freqIndex} onSelect={onSelect} /></div>
         <div><h3>B</h3><ResultsTable result={b} selected={fb.indexOf(fa[freqIndex])} onSelect={(k) => { const i = fa.indexOf(fb[k]); if (i >= 0) onSelect(i); }} /></div>
       </div>
+      <CompareTargets a={a} b={b} freqIndex={freqIndex} />
     </section>
   );
 }

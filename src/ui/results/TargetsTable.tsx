@@ -1,11 +1,29 @@
 import { useId } from 'react';
-import type { PlanResult } from '../../core/types';
+import type { PlanResult, TargetFrequencyFigures } from '../../core/types';
 import { fixed, hours, kelvin, sig } from '../format';
 import { ScrollCue } from '../ScrollCue';
 import { summaryHours } from '../../core/export/summary';
 
 // One row per target and frequency, straight from PlanResult.summary.targets
 // (the same figures as summary.json and targets.csv).
+
+/** The four figure columns: heading and what it means (shared with the comparison's targets table). */
+export const TARGET_FIGURE_HEADS: { label: string; title: string }[] = [
+  { label: 'In half-power beam', title: 'Usable hours with the target inside the half-power region of some feed' },
+  { label: 'Exposure', title: "Usable time weighted by the beam's power at the target (the exposure map's value there)" },
+  { label: 'Mean antenna temp. (in beam)', title: 'Antenna temperature averaged over the hours the target is in the half-power beam' },
+  { label: 'Noise', title: 'Radiometer noise at the target: 1 / sqrt(bandwidth × Σ B dt / T_sys²)' },
+];
+
+/** One target's figures at one frequency as the table cells show them ("—" where not defined). */
+export function targetFigureText(f: TargetFrequencyFigures): [string, string, string, string] {
+  return [
+    `${hours(f.usable_hours_in_beam)} h`,
+    `${hours(f.exposure_h)} h`,
+    Number.isFinite(f.t_ant_mean_k) ? kelvin(f.t_ant_mean_k, 3) : '—',
+    Number.isFinite(f.noise_k) ? kelvin(f.noise_k, 3) : '—',
+  ];
+}
 
 export function TargetsTable({ result, selected }: { result: PlanResult; selected: number }) {
   const targets = result.summary.targets;
@@ -21,10 +39,7 @@ export function TargetsTable({ result, selected }: { result: PlanResult; selecte
             <tr>
               <th scope="col">Target (RA, Dec; l, b)</th>
               <th scope="col">Frequency</th>
-              <th scope="col" title="Usable hours with the target inside the half-power region of some feed">In half-power beam</th>
-              <th scope="col" title="Usable time weighted by the beam's power at the target (the exposure map's value there)">Exposure</th>
-              <th scope="col" title="Antenna temperature averaged over the hours the target is in the half-power beam">Mean antenna temp. (in beam)</th>
-              <th scope="col" title="Radiometer noise at the target: 1 / sqrt(bandwidth × Σ B dt / T_sys²)">Noise</th>
+              {TARGET_FIGURE_HEADS.map((h) => <th key={h.label} scope="col" title={h.title}>{h.label}</th>)}
             </tr>
           </thead>
           <tbody>
@@ -39,10 +54,7 @@ export function TargetsTable({ result, selected }: { result: PlanResult; selecte
                   </th>
                 )}
                 <td>{sig(f.mhz, 6)} MHz</td>
-                <td>{hours(f.usable_hours_in_beam)} h</td>
-                <td>{hours(f.exposure_h)} h</td>
-                <td>{Number.isFinite(f.t_ant_mean_k) ? kelvin(f.t_ant_mean_k, 3) : '—'}</td>
-                <td>{Number.isFinite(f.noise_k) ? kelvin(f.noise_k, 3) : '—'}</td>
+                {targetFigureText(f).map((v, c) => <td key={c}>{v}</td>)}
               </tr>
             )))}
           </tbody>

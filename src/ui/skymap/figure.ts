@@ -314,7 +314,23 @@ export function drawOverlayLayer(ctx: Ctx2D, g: MapGeometry, result: PlanResult,
   });
   drawGraticuleLabels(ctx, g, view.frame, u);
   drawCentreMarker(ctx, g, view.frame, u);
-  drawTargetMarkers(ctx, g, view.frame, targetMarks(result), u);
+  drawTargetMarkers(ctx, g, view.frame, mapTargetMarks(result, view), u);
+}
+
+/**
+ * The targets the map marks: the result's; on a difference map (result = A,
+ * view.diff.other = B) B's as well, each name once unless B moved it (then
+ * both places, B's named "name (B)").
+ */
+export function mapTargetMarks(result: PlanResult, view: SkyView): { name: string; vec: [number, number, number] }[] {
+  const own = targetMarks(result);
+  const other = !view.compare && view.diff ? targetMarks(view.diff.other) : [];
+  if (other.length === 0) return own;
+  // the same place: chord under 1e-8 rad (a dot product against cos(1e-8) == 1 would round away)
+  const same = (p: [number, number, number], q: [number, number, number]) => Math.hypot(p[0] - q[0], p[1] - q[1], p[2] - q[2]) < 1e-8;
+  const extra = other.filter((t) => !own.some((o) => o.name === t.name && same(o.vec, t.vec)))
+    .map((t) => (own.some((o) => o.name === t.name) ? { name: `${t.name} (${view.diff!.labelB})`, vec: t.vec } : t));
+  return extra.length ? [...own, ...extra] : own;
 }
 
 const targetMarkCache = new WeakMap<object, { name: string; vec: [number, number, number] }[]>();
@@ -336,6 +352,7 @@ export function overlayKey(g: MapGeometry, result: PlanResult, view: SkyView, u:
     g.width, g.height, g.flipLongitude, view.frame, m.galactic_band_deg, m.galactic_center_radius_deg, u, dpr,
     b ? `${b.ra_deg},${b.dec_deg},${b.usable},${beamRadiusDeg(result, view.freqIndex)},${b.outlines ? b.outlines.map((o) => `${o.length}:${o[0]},${o[1]}`).join(';') : ''}` : '-',
     JSON.stringify(result.scenario.targets ?? []),
+    !view.compare && view.diff ? JSON.stringify(view.diff.other.scenario.targets ?? []) : '-',
   ].join('|');
 }
 
@@ -471,7 +488,7 @@ export function legendEntries(result: PlanResult, view: SkyView): LegendEntry[] 
       dashed: !view.beamAt.usable,
     });
   }
-  const nT = result.scenario.targets?.length ?? 0;
+  const nT = mapTargetMarks(result, view).length;
   if (nT > 0) out.push({ kind: 'target', colour: OVERLAY_STYLE.target, label: `Target${nT > 1 ? 's' : ''} (${nT}, named beside the diamond)` });
   const freqs = result.scenario.telescope.frequencies_mhz;
   // In a difference map `result` is plan A and view.diff.other plan B: every figure carries its plan's letter.
