@@ -45,6 +45,20 @@ const TIME_BASE_S = 1;
 // taken here at twice that for a loaded machine.
 export const SKY_BUILD_BASE_S = 0.3;
 export const SKY_BUILD_PER_MAP_S = 0.05;
+// The first run in a page (in a fresh worker: also after Cancel, which
+// replaces the worker) pays for starting the worker and for running the code
+// before the JIT has compiled it, while the page itself is starting up.
+// Measured with scripts/warmup-timing.ts (2026-12-03, 9 fresh pages, each in a
+// newly started headless Chromium, production build, load average 8.5-9.5 on
+// 2 shared cores): the demo's first run in the page against a run in the same,
+// now warm worker with as many new sky maps to build (the demo's frequencies
+// times 10^(2/20)), each less its estimate: median 0.71 s (0.28-2.37 s); the
+// first run less a second run of the demo less the sky-build term: median
+// 0.88 s. In Node (runPlan, the same two runs in one process, CPU time): 0.76,
+// 0.92 and 1.16 s. Taken as 0.9 s. (The first run then took 3.3 s against
+// 2.15 s estimated without this term; the run with new maps in a warm worker
+// 2.6 s against 2.2 s: the rest is the load.)
+export const WARM_UP_FIRST_RUN_S = 0.9;
 
 export interface RunEstimate {
   samples: number;
@@ -52,13 +66,15 @@ export interface RunEstimate {
   memory_mb: number;
   seconds_estimate: number;
   /** the parts of seconds_estimate */
-  terms: { base_s: number; samples_s: number; pixels_s: number; sky_build_s: number; sky_maps_to_build: number };
+  terms: { base_s: number; samples_s: number; pixels_s: number; sky_build_s: number; sky_maps_to_build: number; warm_up_s: number };
   problems: FieldIssue[];
 }
 
 export interface EstimateOptions {
   /** whether the galaxy model's map at this node frequency is built where the run will go (default: this process's cache) */
   skyMapBuilt?: (nodeMHz: number) => boolean;
+  /** the run goes to a worker that has not finished a run yet (the app's first run in a page): adds WARM_UP_FIRST_RUN_S (default false: the CLI's fit already holds its start-up) */
+  coldWorker?: boolean;
 }
 
 function grouped(n: number): string {
@@ -92,8 +108,9 @@ export function estimateRun(s: Scenario, opts: EstimateOptions = {}): RunEstimat
     pixels_s: npix * nf * TIME_PER_PIXEL_FREQ_S,
     sky_build_s: sky_maps_to_build > 0 ? SKY_BUILD_BASE_S + sky_maps_to_build * SKY_BUILD_PER_MAP_S : 0,
     sky_maps_to_build,
+    warm_up_s: opts.coldWorker ? WARM_UP_FIRST_RUN_S : 0,
   };
-  const seconds_estimate = terms.base_s + terms.samples_s + terms.pixels_s + terms.sky_build_s;
+  const seconds_estimate = terms.base_s + terms.samples_s + terms.pixels_s + terms.sky_build_s + terms.warm_up_s;
 
   const problems: FieldIssue[] = [];
   if (!Number.isFinite(samples)) {

@@ -26,6 +26,8 @@ export interface BrowserEngine {
   dispose(): void;
   /** whether the current worker holds the galaxy sky model's map at this node frequency (built by a finished run) */
   skyMapBuilt(nodeMHz: number): boolean;
+  /** whether the current worker has finished a run (its code compiled and warm); false again after a cancel or crash replaces it */
+  warm(): boolean;
 }
 
 function defaultWorker(): WorkerLike {
@@ -46,6 +48,8 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
   let disposed = false;
   // node frequencies of the galaxy model's maps the current worker has built (its cache; lost with the worker)
   let built = new Set<number>();
+  // a run has finished in the current worker (for the estimate's first-run warm-up term)
+  let warm = false;
   let runningScenario: Scenario | null = null;
 
   const settle = (e: Error | null, r?: PlanResult): void => {
@@ -61,6 +65,7 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
     const w = worker;
     worker = null;
     built = new Set();
+    warm = false;
     w.onmessage = w.onerror = w.onmessageerror = null;
     w.terminate();
   };
@@ -74,6 +79,7 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
       else if (m.type === 'result') {
         const sc = runningScenario;
         if (sc && (sc.sky?.model ?? 'galaxy') === 'galaxy') for (const f of sc.telescope.frequencies_mhz) for (const n of galaxyNodesFor(f)) built.add(n);
+        warm = true;
         settle(null, m.result);
       }
       else if (m.type === 'error') {
@@ -124,6 +130,7 @@ export function createBrowserEngine(makeWorker: () => WorkerLike = defaultWorker
       }
     },
     skyMapBuilt: (f) => built.has(f),
+    warm: () => warm,
     dispose() {
       disposed = true;
       kill();

@@ -85,7 +85,8 @@ export function App() {
   const parsed = useMemo(() => parseScenario(draftToCandidate(draft)), [draft]);
   const scenario: Scenario | null = parsed.ok ? parsed.scenario : null;
   // the estimate counts the sky model's build while the plan worker has not built it yet
-  const estimate = useMemo(() => (scenario ? estimateRun(scenario, { skyMapBuilt: engine.skyMapBuilt }) : null), [scenario, engine.skyMapBuilt, engine.result]); // eslint-disable-line react-hooks/exhaustive-deps
+  // engine.result and engine.cancelled: a finished run warms the worker and builds sky maps; a cancel replaces the worker with a cold one
+  const estimate = useMemo(() => (scenario ? estimateRun(scenario, { skyMapBuilt: engine.skyMapBuilt, coldWorker: !engine.warm() }) : null), [scenario, engine.skyMapBuilt, engine.result, engine.cancelled]); // eslint-disable-line react-hooks/exhaustive-deps
 
   // the user's sky maps: bytes in IndexedDB by file name, read maps in memory
   const [skyLoaded, setSkyLoaded] = useState<Record<string, HealpixMap>>({});

@@ -20,7 +20,8 @@ export function RunBar({ engine, estimateText, estimateSeconds = null, invalid, 
 }) {
   const pct = Math.round(engine.fraction * 100);
   return (
-    <section className="runbar" aria-label="Computation" data-testid="runbar" data-running={engine.running ? '1' : '0'}>
+    <section className="runbar" aria-label="Computation" data-testid="runbar" data-running={engine.running ? '1' : '0'}
+      data-last-ms={engine.lastMs ?? ''}>
       <div className="run-controls">
         <button type="button" className="primary" onClick={onCompute} disabled={invalid || engine.running}>
           Compute

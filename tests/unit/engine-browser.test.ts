@@ -72,6 +72,25 @@ describe('browser engine (worker protocol)', () => {
     eng.dispose();
   });
 
+  it('warm() is false until the worker has finished a run, and false again for the fresh worker a cancel starts', async () => {
+    FakeWorker.all = [];
+    const eng = createBrowserEngine(() => new FakeWorker());
+    expect(eng.warm()).toBe(false);
+    const p = eng.run(scenario(30));
+    expect(eng.warm()).toBe(false); // running, not finished
+    await p;
+    expect(eng.warm()).toBe(true);
+    await eng.run(scenario(30));
+    expect(eng.warm()).toBe(true);
+    eng.cancel(); // a fresh worker replaces the warm one
+    expect(FakeWorker.all.length).toBe(2);
+    expect(eng.warm()).toBe(false);
+    await eng.run(scenario(30));
+    expect(eng.warm()).toBe(true);
+    eng.dispose();
+    expect(eng.warm()).toBe(false);
+  });
+
   it('cancel() terminates the worker, rejects with CancelledError and starts a fresh worker', async () => {
     FakeWorker.all = [];
     const eng = createBrowserEngine(() => new FakeWorker());

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { RUN_LIMITS, SKY_BUILD_BASE_S, SKY_BUILD_PER_MAP_S, describeEstimate, estimateRun } from '../../src/core/limits';
+import { RUN_LIMITS, SKY_BUILD_BASE_S, SKY_BUILD_PER_MAP_S, WARM_UP_FIRST_RUN_S, describeEstimate, estimateRun } from '../../src/core/limits';
 import { DEMO_SCENARIO } from '../../src/core/demo';
 import { sampleCount, stepMin } from '../../src/core/time';
 import type { Scenario } from '../../src/core/types';
@@ -98,6 +98,29 @@ describe('estimateRun counts the sky model build while its cache is cold', () =>
     const { drain } = await import('../../src/core/types');
     drain(skyModelFor(fresh.sky).prepareAll([7.3]));
     expect(estimateRun(fresh).terms.sky_maps_to_build).toBe(0);
+  });
+});
+
+describe('estimateRun adds the warm-up only for the first run in a fresh worker', () => {
+  it('a cold worker adds WARM_UP_FIRST_RUN_S; a warm one, and the default (the CLI), add nothing', () => {
+    // the constant measured by scripts/warmup-timing.ts (limits.ts says how): not zero, so the term is seen below
+    expect(WARM_UP_FIRST_RUN_S).toBeGreaterThan(0);
+    const built = { skyMapBuilt: () => true };
+    const first = estimateRun(DEMO_SCENARIO, { ...built, coldWorker: true });
+    const again = estimateRun(DEMO_SCENARIO, { ...built, coldWorker: false });
+    const cli = estimateRun(DEMO_SCENARIO, built);
+    expect(first.terms.warm_up_s).toBe(WARM_UP_FIRST_RUN_S);
+    expect(again.terms.warm_up_s).toBe(0);
+    expect(cli.terms.warm_up_s).toBe(0);
+    expect(first.seconds_estimate - again.seconds_estimate).toBeCloseTo(WARM_UP_FIRST_RUN_S, 12);
+    expect(cli.seconds_estimate).toBe(again.seconds_estimate);
+    // the estimate is the sum of its terms
+    for (const e of [first, again]) {
+      expect(e.seconds_estimate).toBeCloseTo(e.terms.base_s + e.terms.samples_s + e.terms.pixels_s + e.terms.sky_build_s + e.terms.warm_up_s, 12);
+    }
+    // independent of the sky build: a cold worker has its maps to build as well, and both terms count
+    const cold = estimateRun(DEMO_SCENARIO, { skyMapBuilt: () => false, coldWorker: true });
+    expect(cold.seconds_estimate - first.seconds_estimate).toBeCloseTo(cold.terms.sky_build_s, 12);
   });
 });
 

@@ -21,7 +21,7 @@ export interface EngineState {
   lastMs: number | null;
 }
 
-export function useEngine(): EngineState & { run: (s: Scenario, skyMaps?: LoadedSkyMap[]) => void; cancel: () => void; skyMapBuilt: (nodeMHz: number) => boolean } {
+export function useEngine(): EngineState & { run: (s: Scenario, skyMaps?: LoadedSkyMap[]) => void; cancel: () => void; skyMapBuilt: (nodeMHz: number) => boolean; warm: () => boolean } {
   const engineRef = useRef<Engine | null>(null);
   const runId = useRef(0);
   const runningRef = useRef(false);
@@ -109,7 +109,10 @@ export function useEngine(): EngineState & { run: (s: Scenario, skyMaps?: Loaded
   // for the run estimate: what the worker has cached (nothing before its first run)
   const skyMapBuilt = useCallback((f: number) => engineRef.current?.skyMapBuilt(f) ?? false, []);
 
-  return { ...st, run, cancel, skyMapBuilt };
+  // for the run estimate: whether the worker has finished a run (no warm-up term then)
+  const warm = useCallback(() => engineRef.current?.warm() ?? false, []);
+
+  return { ...st, run, cancel, skyMapBuilt, warm };
 }
 
 function errText(e: unknown): string {
