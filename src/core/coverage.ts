@@ -192,6 +192,65 @@ export function* hitMapStage(
       nside /= 2;
     }
   }
+  return hitMapFromPages(nside, pages, { track, usable, nside, maxStepRad: maxStep, ...(cells ? { cells: cells.slice(0, nCells) } : {}) });
+}
+
+/**
+ * Hit maps of the walk that made `hit`, with sample i's hours replaced by
+ * weights[c][i] for each channel c (the noise's T_sys-weighted hours, one
+ * channel per frequency): the same sub-steps and pixels as `hit` (kept in its
+ * path, so neither is found again), each channel summed in the order a
+ * separate walk would sum it. A sample with no positive weight adds nothing.
+ * The maps carry no path.
+ */
+export function* reweightedHitMapsStage(hit: HitMap, weights: Float64Array[]): Stage<HitMap[]> {
+  const path = hit.path;
+  if (!path) throw new RangeError('reweighted hit maps need the hit map\'s path');
+  const { track, usable, nside, maxStepRad, cells } = path;
+  const { zx, zy, zz, weight_h, n } = track;
+  for (const w of weights) if (w.length !== n) throw new RangeError(`weights have ${w.length} entries, track has ${n}`);
+  const nc = weights.length;
+  const pages: (Float64Array | undefined)[][] = weights.map(() => new Array(Math.ceil(nside2npix(nside) / PAGE)));
+  const e = new Float64Array(3), v = new Float64Array(3);
+  let step = 0, work = 0;
+  for (let i = 0; i < n; i++) {
+    // the sub-steps of the walk that made `hit` (cells are numbered along it)
+    if (!usable[i] || !(weight_h[i] > 0)) continue;
+    segmentEnd(track, i, e);
+    const ax = zx[i], ay = zy[i], az = zz[i];
+    const dx = e[0] - ax, dy = e[1] - ay, dz = e[2] - az;
+    const k = subStepCount(Math.sqrt(dx * dx + dy * dy + dz * dz), maxStepRad);
+    let any = false;
+    for (let c = 0; c < nc; c++) if (weights[c][i] > 0) any = true;
+    if (!any) { step += k; continue; }
+    for (let j = 0; j < k; j++, step++) {
+      pathPoint(ax, ay, az, dx, dy, dz, (j + 0.5) / k, v);
+      const x = v[0], y = v[1], z = v[2];
+      const p = cells ? cells[step] : vec2pixNest(nside, x, y, z);
+      const pi = p >>> PAGE_BITS, o = (p & (PAGE - 1)) * 4;
+      for (let c = 0; c < nc; c++) {
+        const w = weights[c][i];
+        if (!(w > 0)) continue;
+        const h = w / k;
+        let page = pages[c][pi];
+        if (page === undefined) pages[c][pi] = page = new Float64Array(4 * PAGE);
+        page[o] += h;
+        page[o + 1] += h * x;
+        page[o + 2] += h * y;
+        page[o + 3] += h * z;
+      }
+    }
+    work += k + 1;
+    if (work >= 50_000) {
+      work = 0;
+      yield i / n;
+    }
+  }
+  return pages.map((pg) => hitMapFromPages(nside, pg));
+}
+
+/** The listed pixels of a paged accumulator (hours, then the three direction sums, per pixel). */
+function hitMapFromPages(nside: number, pages: (Float64Array | undefined)[], path?: HitPath): HitMap {
   let count = 0;
   for (const page of pages) {
     if (page === undefined) continue;
@@ -205,7 +264,7 @@ export function* hitMapStage(
     sy: new Float64Array(count),
     sz: new Float64Array(count),
     totalHours: 0,
-    path: { track, usable, nside, maxStepRad: maxStep, ...(cells ? { cells: cells.slice(0, nCells) } : {}) },
+    ...(path ? { path } : {}),
   };
   let k = 0;
   for (let pi = 0; pi < pages.length; pi++) {

@@ -4,6 +4,7 @@
 import type { FrequencySummary, Scenario, Track } from './types';
 import { redshift21cm, wavelengthM } from './beam';
 import { galDegToVec } from './frames';
+import { medianInPlace } from './median';
 
 const DEG = Math.PI / 180;
 
@@ -33,9 +34,10 @@ export function maskedMedian(map: Float32Array, mask: Uint8Array): number {
   for (let i = 0; i < mask.length; i++) if (mask[i]) n++;
   if (n === 0) return 0;
   const v = new Float32Array(n);
-  for (let i = 0, k = 0; i < mask.length; i++) if (mask[i]) v[k++] = map[i];
-  v.sort();
-  return n % 2 === 1 ? v[(n - 1) / 2] : (v[n / 2 - 1] + v[n / 2]) / 2;
+  let nan = false;
+  for (let i = 0, k = 0; i < mask.length; i++) if (mask[i]) { const x = map[i]; v[k++] = x; if (x !== x) nan = true; }
+  if (nan) { v.sort(); return n % 2 === 1 ? v[(n - 1) / 2] : (v[n / 2 - 1] + v[n / 2]) / 2; } // NaN sorts last; selection cannot order it
+  return medianInPlace(v, n);
 }
 
 export interface FrequencyInputs {

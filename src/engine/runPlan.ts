@@ -15,7 +15,7 @@ import { parseScenario, ScenarioError } from '../core/scenario';
 import { trackStage } from '../core/ephemeris';
 import { galacticSummary, hoursSummary, zenithSummary } from '../core/usable';
 import { distinctMasks, frequencyLimitsStage, ionosphereNote, usableAtAny, usableByFrequency, usableHoursAt, type FrequencyLimits } from '../core/shielding/usableByFrequency';
-import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, type HitMap } from '../core/coverage';
+import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, reweightedHitMapsStage, type HitMap } from '../core/coverage';
 import { frequencySummary, NOISE_ESTIMATOR, noiseWithSky, SENSITIVITY_DEFAULTS, skyModelNote } from '../core/stats';
 import { sysWeightedTrack } from '../core/sky/noise';
 import { parseUtcMs, stepMin } from '../core/time';
@@ -244,6 +244,15 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
   // Exposure and covered sky per frequency
   const nf = beams.length;
   d.report('exposure', 0);
+  // noise: the same exposure with each sample's hours weighted by (T_ref / T_sys(t))^2 (sky/noise.ts);
+  // the weighted hit maps of all frequencies sharing a hit map in one walk of its path
+  const weighted = freqsMhz.map((_, k) => sysWeightedTrack(track, tAnt.t_ant_k[k], sens.receiver_temp_k, usableByFreq[k]));
+  const hitsW: HitMap[] = new Array(nf);
+  for (let g = 0; g < hits.length; g++) {
+    const ks = freqsMhz.map((_, k) => k).filter((k) => groups.index[k] === g);
+    const maps = await d.run('exposure', reweightedHitMapsStage(hits[g].hit, ks.map((k) => weighted[k].track.weight_h)), 0, 0);
+    ks.forEach((k, j) => { hitsW[k] = maps[j]; });
+  }
   for (let k = 0; k < nf; k++) {
     const lo = k / nf, mid = (k + 0.8) / nf, hi = (k + 1) / nf;
     const hit = hits[groups.index[k]].hit;
@@ -253,10 +262,8 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     maps.push(map);
     coveredMasks.push(covered);
     const mhz = s.telescope.frequencies_mhz[k];
-    // noise: the same exposure with each sample's hours weighted by (T_ref / T_sys(t))^2 (sky/noise.ts)
-    const wt = sysWeightedTrack(track, tAnt.t_ant_k[k], sens.receiver_temp_k, usableK);
-    const hitW = await d.run('exposure', hitMapStage(wt.track, usableK, { nside: hits[groups.index[k]].requested }), hi, hi);
-    const mapW = await d.run('exposure', exposureStage(hitW, beams[k], nside), hi, hi);
+    const wt = weighted[k];
+    const mapW = await d.run('exposure', exposureStage(hitsW[k], beams[k], nside), hi, hi);
     const noise = { ...noiseWithSky(mapW, covered, wt.tRefK, sens.bandwidth_mhz), t_sky_k: tAntFigures[k].median, t_sys_k: wt.tRefK };
     noiseMaps.push(noise.noise);
     const note = ionosphereNote(s, mhz);

@@ -14,17 +14,17 @@
 // T_sys at every sample, E' is the exposure and this is exactly the old law.
 
 import type { Track } from '../types';
+import { medianInPlace } from '../median';
 
 /** Median of the finite values of `v` over the flagged samples; NaN when there are none. */
 function flaggedMedian(v: Float64Array, usable: Uint8Array): number {
   let n = 0;
   for (let i = 0; i < v.length; i++) if (usable[i] && v[i] === v[i]) n++;
   if (n === 0) return NaN;
-  // a typed array sorts numerically without a comparator (several times faster; the survey calls this per site)
+  // by selection, not a sort (the plan takes it per frequency over ~10^6 samples, the survey per site)
   const a = new Float64Array(n);
   for (let i = 0, k = 0; i < v.length; i++) if (usable[i] && v[i] === v[i]) a[k++] = v[i];
-  a.sort();
-  return n % 2 ? a[(n - 1) / 2] : (a[n / 2 - 1] + a[n / 2]) / 2;
+  return medianInPlace(a, n);
 }
 
 /**
