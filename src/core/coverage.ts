@@ -20,7 +20,7 @@ import type { Stage, Track } from './types';
 import { drain } from './types';
 import type { BeamModel } from './types';
 import { makeBeam } from './beam';
-import { segmentEnd, subStepCount, pathPoint } from './coveragePath';
+import { findSorted, segmentEnd, subStepCount, pathPoint } from './coveragePath';
 import { resolveByPathStage, type PendingPairs } from './coveredPath';
 import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, pix2vecNestInto, pix2vecRingInto, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
 
@@ -70,8 +70,10 @@ export interface HitPath {
   /** nside the walk binned on, and the longest sub-step (chord, radians) */
   nside: number;
   maxStepRad: number;
-  /** the NESTED pixel (at `nside`) of every sub-step's midpoint, in walk order; absent past PATH_CELLS_MAX */
-  cells?: Int32Array;
+  /** the NESTED pixels (at `nside`) of the map the walk made: its `pix` */
+  pix: Float64Array;
+  /** for every sub-step's midpoint, in walk order, the index of its pixel in `pix`; absent past PATH_CELLS_MAX */
+  cellHit?: Int32Array;
 }
 
 /** Sub-steps whose pixels the hit map keeps for the covered-sky stage (64 MB); beyond, it finds them again. */
@@ -192,7 +194,18 @@ export function* hitMapStage(
       nside /= 2;
     }
   }
-  return hitMapFromPages(nside, pages, { track, usable, nside, maxStepRad: maxStep, ...(cells ? { cells: cells.slice(0, nCells) } : {}) });
+  const hit = hitMapFromPages(nside, pages, true);
+  let cellHit: Int32Array | undefined;
+  if (cells) {
+    // each sub-step's pixel -> its index in the lists (the pages hold it now)
+    for (let q = 0; q < nCells; q++) {
+      const p = cells[q];
+      cells[q] = pages[p >>> PAGE_BITS]![(p & (PAGE - 1)) * 4 + 1];
+    }
+    cellHit = cells.slice(0, nCells);
+  }
+  hit.path = { track, usable, nside, maxStepRad: maxStep, pix: hit.pix, ...(cellHit ? { cellHit } : {}) };
+  return hit;
 }
 
 /**
@@ -206,15 +219,16 @@ export function* hitMapStage(
 export function* reweightedHitMapsStage(hit: HitMap, weights: Float64Array[]): Stage<HitMap[]> {
   const path = hit.path;
   if (!path) throw new RangeError('reweighted hit maps need the hit map\'s path');
-  const { track, usable, nside, maxStepRad, cells } = path;
+  const { track, usable, nside, maxStepRad, pix, cellHit } = path;
   const { zx, zy, zz, weight_h, n } = track;
   for (const w of weights) if (w.length !== n) throw new RangeError(`weights have ${w.length} entries, track has ${n}`);
-  const nc = weights.length;
-  const pages: (Float64Array | undefined)[][] = weights.map(() => new Array(Math.ceil(nside2npix(nside) / PAGE)));
+  const nc = weights.length, m = pix.length;
+  // hours and direction sums per pixel of the walk's own map (a weighted map's pixels are among them)
+  const acc = weights.map(() => new Float64Array(4 * m));
   const e = new Float64Array(3), v = new Float64Array(3);
   let step = 0, work = 0;
   for (let i = 0; i < n; i++) {
-    // the sub-steps of the walk that made `hit` (cells are numbered along it)
+    // the sub-steps of the walk that made the map (cellHit is numbered along it)
     if (!usable[i] || !(weight_h[i] > 0)) continue;
     segmentEnd(track, i, e);
     const ax = zx[i], ay = zy[i], az = zz[i];
@@ -226,18 +240,15 @@ export function* reweightedHitMapsStage(hit: HitMap, weights: Float64Array[]): S
     for (let j = 0; j < k; j++, step++) {
       pathPoint(ax, ay, az, dx, dy, dz, (j + 0.5) / k, v);
       const x = v[0], y = v[1], z = v[2];
-      const p = cells ? cells[step] : vec2pixNest(nside, x, y, z);
-      const pi = p >>> PAGE_BITS, o = (p & (PAGE - 1)) * 4;
+      const o = 4 * (cellHit ? cellHit[step] : findSorted(pix, vec2pixNest(nside, x, y, z)));
       for (let c = 0; c < nc; c++) {
         const w = weights[c][i];
         if (!(w > 0)) continue;
-        const h = w / k;
-        let page = pages[c][pi];
-        if (page === undefined) pages[c][pi] = page = new Float64Array(4 * PAGE);
-        page[o] += h;
-        page[o + 1] += h * x;
-        page[o + 2] += h * y;
-        page[o + 3] += h * z;
+        const h = w / k, a = acc[c];
+        a[o] += h;
+        a[o + 1] += h * x;
+        a[o + 2] += h * y;
+        a[o + 3] += h * z;
       }
     }
     work += k + 1;
@@ -246,11 +257,33 @@ export function* reweightedHitMapsStage(hit: HitMap, weights: Float64Array[]): S
       yield i / n;
     }
   }
-  return pages.map((pg) => hitMapFromPages(nside, pg));
+  return acc.map((a) => {
+    let count = 0;
+    for (let q = 0; q < m; q++) if (a[4 * q] > 0) count++;
+    const out: HitMap = {
+      nside, pix: new Float64Array(count), hours: new Float64Array(count),
+      sx: new Float64Array(count), sy: new Float64Array(count), sz: new Float64Array(count), totalHours: 0,
+    };
+    for (let q = 0, r = 0; q < m; q++) {
+      if (!(a[4 * q] > 0)) continue;
+      out.pix[r] = pix[q];
+      out.hours[r] = a[4 * q];
+      out.sx[r] = a[4 * q + 1];
+      out.sy[r] = a[4 * q + 2];
+      out.sz[r] = a[4 * q + 3];
+      out.totalHours += a[4 * q];
+      r++;
+    }
+    return out;
+  });
 }
 
-/** The listed pixels of a paged accumulator (hours, then the three direction sums, per pixel). */
-function hitMapFromPages(nside: number, pages: (Float64Array | undefined)[], path?: HitPath): HitMap {
+/**
+ * The listed pixels of a paged accumulator (hours, then the three direction
+ * sums, per pixel). With `markIndex` each listed pixel's x sum in the pages is
+ * overwritten by its index in the lists.
+ */
+function hitMapFromPages(nside: number, pages: (Float64Array | undefined)[], markIndex: boolean): HitMap {
   let count = 0;
   for (const page of pages) {
     if (page === undefined) continue;
@@ -264,7 +297,6 @@ function hitMapFromPages(nside: number, pages: (Float64Array | undefined)[], pat
     sy: new Float64Array(count),
     sz: new Float64Array(count),
     totalHours: 0,
-    ...(path ? { path } : {}),
   };
   let k = 0;
   for (let pi = 0; pi < pages.length; pi++) {
@@ -278,6 +310,7 @@ function hitMapFromPages(nside: number, pages: (Float64Array | undefined)[], pat
       hit.sy[k] = page[o + 2];
       hit.sz[k] = page[o + 3];
       hit.totalHours += page[o];
+      if (markIndex) page[o + 1] = k;
       k++;
     }
   }

@@ -36,3 +36,15 @@ export function pathPoint(ax: number, ay: number, az: number, dx: number, dy: nu
   const r = 1 / Math.sqrt(x * x + y * y + z * z);
   out[0] = x * r; out[1] = y * r; out[2] = z * r;
 }
+
+/** Index of `p` in the ascending `sorted`, or -1. */
+export function findSorted(sorted: Float64Array, p: number): number {
+  let lo = 0, hi = sorted.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >>> 1;
+    const v = sorted[mid];
+    if (v === p) return mid;
+    if (v < p) lo = mid + 1; else hi = mid - 1;
+  }
+  return -1;
+}

@@ -7,7 +7,7 @@
 
 import type { HitMap, HitPath } from './coverage';
 import type { Stage } from './types';
-import { segmentEnd, subStepCount, pathPoint } from './coveragePath';
+import { findSorted, segmentEnd, subStepCount, pathPoint } from './coveragePath';
 import { pix2vecRingInto, pixelCentersRing, vec2pixNest } from './healpix';
 
 /** Output pixels still undecided, per hit pixel k of the level map: q[start[k] .. start[k+1]). */
@@ -19,17 +19,6 @@ export interface PendingPairs {
 /** Output nside up to which the RING centre table is used (as coverage.ts's CENTRE_TABLE_MAX_NSIDE). */
 const TABLE_MAX_NSIDE = 256;
 
-/** Index of `pix` in the ascending `sorted`, or -1. */
-function find(sorted: Float64Array, pix: number): number {
-  let lo = 0, hi = sorted.length - 1;
-  while (lo <= hi) {
-    const mid = (lo + hi) >>> 1;
-    const v = sorted[mid];
-    if (v === pix) return mid;
-    if (v < pix) lo = mid + 1; else hi = mid - 1;
-  }
-  return -1;
-}
 
 /**
  * Whether direction p lies within the radius of the great-circle piece a -> b
@@ -69,7 +58,9 @@ export function* resolveByPathStage(
   const c = new Float64Array(3);
   const e = new Float64Array(3), m = new Float64Array(3);
   const a = new Float64Array(3), b = new Float64Array(3);
-  const cells = path.cells;
+  const cellHit = path.cellHit;
+  // the map's lists are the walk's own (not degraded): a sub-step's index is the pixel's
+  const same = div === 1 && h.pix === path.pix;
   let step = 0, work = 0;
   for (let i = 0; i < n; i++) {
     if (!usable[i] || !(weight_h[i] > 0)) continue;
@@ -79,12 +70,16 @@ export function* resolveByPathStage(
     const k = subStepCount(Math.sqrt(dx * dx + dy * dy + dz * dz), path.maxStepRad);
     for (let j = 0; j < k; j++, step++) {
       // the midpoint's pixel: as the hit map's walk found it (kept, or found again the same way)
-      let cell: number;
-      if (cells) cell = cells[step]; else {
-        pathPoint(ax, ay, az, dx, dy, dz, (j + 0.5) / k, m);
-        cell = vec2pixNest(path.nside, m[0], m[1], m[2]);
+      let kk: number;
+      if (cellHit && same) kk = cellHit[step];
+      else {
+        let cell: number;
+        if (cellHit) cell = path.pix[cellHit[step]]; else {
+          pathPoint(ax, ay, az, dx, dy, dz, (j + 0.5) / k, m);
+          cell = vec2pixNest(path.nside, m[0], m[1], m[2]);
+        }
+        kk = findSorted(h.pix, Math.floor(cell / div));
       }
-      const kk = find(h.pix, Math.floor(cell / div));
       if (kk < 0) continue;
       const s0 = pend.start[kk], s1 = pend.start[kk + 1];
       if (s0 === s1) continue;
