@@ -454,6 +454,23 @@ export function centresOf(nside: number, a: number, b: number, scratch: { buf: F
  * centres lie within the beam's cutoff of its centroid, weighted by B.
  */
 export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, opts: { hitPerFwhm?: number } = {}): Stage<Float32Array> {
+  return (yield* exposureMapsStage(hit, null, beam, nside, opts))[0];
+}
+
+/**
+ * The exposure of `hit` and, in the same pass, that of `also`: a map of the
+ * same walk on the same grid with other hours (the noise's weighted hours;
+ * its pixels are among `hit`'s). Each map is exactly what exposureStage gives
+ * it alone (the same groups, disc queries and sums in the same order); the
+ * second shares the first's disc queries and pixel centres.
+ */
+export function* exposurePairStage(hit: HitMap, also: HitMap, beam: BeamProfile, nside: number, opts: { hitPerFwhm?: number } = {}): Stage<[Float32Array, Float32Array]> {
+  if (also.nside !== hit.nside) throw new RangeError(`paired hit maps need one grid, got nside ${hit.nside} and ${also.nside}`);
+  const [a, b] = yield* exposureMapsStage(hit, also, beam, nside, opts);
+  return [a, b!];
+}
+
+function* exposureMapsStage(hit: HitMap, also: HitMap | null, beam: BeamProfile, nside: number, opts: { hitPerFwhm?: number }): Stage<[Float32Array, Float32Array | null]> {
   checkOutputNside(nside);
   checkBeam(beam);
   const level = Math.min(hit.nside, nsideForResolution(beam.fwhmRad / (opts.hitPerFwhm ?? EXPOSURE_HIT_PER_FWHM)));
@@ -466,12 +483,27 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
   // half an output pixel for narrow ones (where the queries would dominate)
   const groupNside = groupNsideFor(h.nside, Math.max(beam.cutoffRad / 2, nside2resolRad(nside) / 2));
   const { starts, centres: gc } = groupHits(h, groupNside);
+  // the second map: its own degraded pixels, centroids and groups (a group's parent is found by
+  // walking both group lists, each ascending in parent)
+  const h2 = also ? degradeHitMap(also, level) : null;
+  const acc2 = h2 ? new Float64Array(acc.length) : null;
+  const cen2 = h2 ? centroids(h2) : null;
+  const div = (h.nside / groupNside) ** 2;
+  const starts2 = h2 ? groupHits(h2, groupNside).starts : null;
+  let g2 = 0;
   const widen = maxPixradRad(groupNside);
   const radius = Math.min(Math.PI, beam.cutoffRad + widen);
   const groups = starts.length - 1;
   let work = 0;
   for (let g = 0; g < groups; g++) {
     const k0 = starts[g], k1 = starts[g + 1];
+    // the second map's group under the same parent, if it has one
+    let j0 = 0, j1 = 0;
+    if (h2 && starts2) {
+      const parent = Math.floor(h.pix[k0] / div);
+      while (g2 + 1 < starts2.length && Math.floor(h2.pix[starts2[g2]] / div) < parent) g2++;
+      if (g2 + 1 < starts2.length && Math.floor(h2.pix[starts2[g2]] / div) === parent) { j0 = starts2[g2]; j1 = starts2[g2 + 1]; }
+    }
     const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], radius, false);
     for (let r = 0; r < ranges.length; r += 2) {
       const end = ranges[r + 1];
@@ -488,8 +520,19 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
           sum += h.hours[k] * (values[i0] + (values[i0 + 1] - values[i0]) * (f - i0));
         }
         acc[q] += sum;
+        if (j1 > j0) {
+          let sum2 = 0;
+          for (let k = j0; k < j1; k++) {
+            const u = 1 - (cen2![3 * k] * px + cen2![3 * k + 1] * py + cen2![3 * k + 2] * pz);
+            if (u >= uMax) continue;
+            const f = (u > 0 ? u : 0) * scale;
+            const i0 = f | 0;
+            sum2 += h2!.hours[k] * (values[i0] + (values[i0 + 1] - values[i0]) * (f - i0));
+          }
+          acc2![q] += sum2;
+        }
       }
-      work += (end - ranges[r]) * (k1 - k0);
+      work += (end - ranges[r]) * (k1 - k0 + j1 - j0);
     }
     work += 20;
     if (work >= 100_000) {
@@ -497,7 +540,7 @@ export function* exposureStage(hit: HitMap, beam: BeamProfile, nside: number, op
       yield g / groups;
     }
   }
-  return Float32Array.from(acc);
+  return [Float32Array.from(acc), acc2 ? Float32Array.from(acc2) : null];
 }
 
 /** Group radius for the covered-sky search, in output pixels. */
@@ -593,9 +636,16 @@ function grow(a: Int32Array<ArrayBuffer>): Int32Array<ArrayBuffer> {
 }
 
 /** Centres of all hit pixels (NESTED at the map's nside), x, y, z interleaved. */
+// a plan asks for the centres of one hit map once per frequency
+const centresCache = new WeakMap<Float64Array, Float64Array>();
+
+/** Centres of the hit pixels (x, y, z interleaved); kept per pixel list (a map's lists are never changed once made). */
 function pixelCentresNest(h: HitMap): Float64Array {
+  const hit = centresCache.get(h.pix);
+  if (hit && hit.length === 3 * h.pix.length) return hit;
   const out = new Float64Array(3 * h.pix.length);
   for (let k = 0; k < h.pix.length; k++) pix2vecNestInto(h.nside, h.pix[k], out, 3 * k);
+  centresCache.set(h.pix, out);
   return out;
 }
 

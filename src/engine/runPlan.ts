@@ -15,7 +15,7 @@ import { parseScenario, ScenarioError } from '../core/scenario';
 import { trackStage } from '../core/ephemeris';
 import { galacticSummary, hoursSummary, zenithSummary } from '../core/usable';
 import { distinctMasks, frequencyLimitsStage, ionosphereNote, usableAtAny, usableByFrequency, usableHoursAt, type FrequencyLimits } from '../core/shielding/usableByFrequency';
-import { beamProfileFor, coveredStage, exposureStage, hitMapStage, hitNsideFor, reweightedHitMapsStage, type HitMap } from '../core/coverage';
+import { beamProfileFor, coveredStage, exposurePairStage, hitMapStage, hitNsideFor, reweightedHitMapsStage, type HitMap } from '../core/coverage';
 import { frequencySummary, NOISE_ESTIMATOR, noiseWithSky, SENSITIVITY_DEFAULTS, skyModelNote } from '../core/stats';
 import { sysWeightedTrack } from '../core/sky/noise';
 import { parseUtcMs, stepMin } from '../core/time';
@@ -257,13 +257,13 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     const lo = k / nf, mid = (k + 0.8) / nf, hi = (k + 1) / nf;
     const hit = hits[groups.index[k]].hit;
     const usableK = usableByFreq[k];
-    const map = await d.run('exposure', exposureStage(hit, beams[k], nside), lo, mid);
+    // the exposure, and the noise's weighted exposure in the same pass
+    const [map, mapW] = await d.run('exposure', exposurePairStage(hit, hitsW[k], beams[k], nside), lo, mid);
     const covered = await d.run('exposure', coveredStage(hit, beams[k].fwhmRad / 2, nside), mid, hi);
     maps.push(map);
     coveredMasks.push(covered);
     const mhz = s.telescope.frequencies_mhz[k];
     const wt = weighted[k];
-    const mapW = await d.run('exposure', exposureStage(hitsW[k], beams[k], nside), hi, hi);
     const noise = { ...noiseWithSky(mapW, covered, wt.tRefK, sens.bandwidth_mhz), t_sky_k: tAntFigures[k].median, t_sys_k: wt.tRefK };
     noiseMaps.push(noise.noise);
     const note = ionosphereNote(s, mhz);
