@@ -2,15 +2,15 @@
 // several medians of series with a million samples per run, and a full sort
 // costs O(n log n) where selection costs O(n). The value is the sorted array's
 // middle (or the mean of its two middles) exactly, with the same arithmetic.
-
-type Values = Float64Array | Float32Array;
+// Float64Array only: one element kind keeps the loops monomorphic (a float32
+// series is copied into doubles exactly).
 
 /**
  * Reorders a[0..n) so that a[k] is the k-th smallest (0-based), everything
  * before it no larger and everything after no smaller; returns a[k]. The
  * values must not be NaN.
  */
-export function selectInPlace(a: Values, n: number, k: number): number {
+export function selectInPlace(a: Float64Array, n: number, k: number): number {
   let lo = 0, hi = n - 1, rounds = 0;
   while (hi > lo) {
     // pivots that keep missing (adversarial orders): sort the rest instead
@@ -33,7 +33,7 @@ export function selectInPlace(a: Values, n: number, k: number): number {
 }
 
 /** Median of a[0..n) (no NaN among them; a is reordered): the middle value, or the mean of the two middle ones; NaN when n = 0. */
-export function medianInPlace(a: Values, n: number): number {
+export function medianInPlace(a: Float64Array, n: number): number {
   if (n === 0) return NaN;
   if (n % 2 === 1) return selectInPlace(a, n, (n - 1) / 2);
   const upper = selectInPlace(a, n, n / 2);

@@ -33,7 +33,7 @@ export function maskedMedian(map: Float32Array, mask: Uint8Array): number {
   let n = 0;
   for (let i = 0; i < mask.length; i++) if (mask[i]) n++;
   if (n === 0) return 0;
-  const v = new Float32Array(n);
+  const v = new Float64Array(n); // float32 values exactly; the median's arithmetic is in doubles either way
   let nan = false;
   for (let i = 0, k = 0; i < mask.length; i++) if (mask[i]) { const x = map[i]; v[k++] = x; if (x !== x) nan = true; }
   if (nan) { v.sort(); return n % 2 === 1 ? v[(n - 1) / 2] : (v[n / 2 - 1] + v[n / 2]) / 2; } // NaN sorts last; selection cannot order it

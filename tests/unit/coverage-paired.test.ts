@@ -31,8 +31,6 @@ describe('median by selection', () => {
       for (const n of [1, 2, 3, 4, 5, 10, 11, 64, 257, 1000, 5001]) {
         const v = kind(n);
         expect(medianInPlace(Float64Array.from(v), n)).toBe(sortedMedian(v));
-        const f = Float32Array.from(v);
-        expect(medianInPlace(f, n)).toBe(sortedMedian(Array.from(Float32Array.from(v))));
       }
     }
     expect(medianInPlace(new Float64Array(0), 0)).toBeNaN();

@@ -492,13 +492,39 @@ export function antennaTempGrid(
     const rA = Math.floor(tq), ft = tq - rA;
     return (1 - ft) * onRowLinear(rA, j0, j1, fj, phi) + ft * onRowLinear(rA + 1, j0, j1, fj, phi);
   };
+  // onRowCubic with the weights in registers (the same arithmetic): the per-sample loop's inner step
+  const rowCubic = (row: number, phi: number): number => {
+    const nr = rowN[row];
+    const q = (phi * nr) / TWO_PI;
+    let c = Math.floor(q);
+    if (c >= nr) c = nr - 1;
+    const t = q - c, t2 = t * t, t3 = t2 * t;
+    const v = strips[row] ?? computeStrip(row, 0);
+    return 0.5 * (-t3 + 2 * t2 - t) * v[c] + 0.5 * (3 * t3 - 5 * t2 + 2) * v[c + 1] + 0.5 * (-3 * t3 + 4 * t2 + t) * v[c + 2] + 0.5 * (t3 - t2) * v[c + 3];
+  };
   const ang = new Float64Array(3), fa = new Float64Array(9);
   // one call per block of samples: the loop stays inside this grid's own functions
   const atAnglesBlock = (th: Float64Array, ph: Float64Array, ps: Float64Array, count: number, dst: Float64Array, seg: Uint8Array | null, segOffset: number, g: number): void => {
+    if (nPsi === 1) {
+      // atAnglesCubic, inlined away from the poles
+      for (let j = 0; j < count; j++) {
+        if (seg !== null && seg[segOffset + j] !== g) continue;
+        const theta = th[j];
+        if (theta !== theta) { dst[j] = NaN; continue; }
+        const phi = ph[j];
+        const tq = theta / dTheta - 0.5;
+        const r0 = Math.floor(tq);
+        if (r0 < 1 || r0 > nRows - 3) { dst[j] = atAnglesCubic(theta, phi); continue; }
+        const ft = tq - r0, f2 = ft * ft, f3 = f2 * ft;
+        dst[j] = 0.5 * (-f3 + 2 * f2 - ft) * rowCubic(r0 - 1, phi) + 0.5 * (3 * f3 - 5 * f2 + 2) * rowCubic(r0, phi)
+          + 0.5 * (-3 * f3 + 4 * f2 + ft) * rowCubic(r0 + 1, phi) + 0.5 * (f3 - f2) * rowCubic(r0 + 2, phi);
+      }
+      return;
+    }
     for (let j = 0; j < count; j++) {
       if (seg !== null && seg[segOffset + j] !== g) continue;
       const t = th[j];
-      dst[j] = t !== t ? NaN : nPsi === 1 ? atAnglesCubic(t, ph[j]) : atAngles(t, ph[j], ps[j]);
+      dst[j] = t !== t ? NaN : atAngles(t, ph[j], ps[j]);
     }
   };
   return {
