@@ -48,17 +48,18 @@ export const SKY_BUILD_PER_MAP_S = 0.05;
 // The first run in a page (in a fresh worker: also after Cancel, which
 // replaces the worker) pays for starting the worker and for running the code
 // before the JIT has compiled it, while the page itself is starting up.
-// Measured with scripts/warmup-timing.ts (2026-12-03, 9 fresh pages, each in a
-// newly started headless Chromium, production build, load average 8.5-9.5 on
-// 2 shared cores): the demo's first run in the page against a run in the same,
-// now warm worker with as many new sky maps to build (the demo's frequencies
-// times 10^(2/20)), each less its estimate: median 0.71 s (0.28-2.37 s); the
-// first run less a second run of the demo less the sky-build term: median
-// 0.88 s. In Node (runPlan, the same two runs in one process, CPU time): 0.76,
-// 0.92 and 1.16 s. Taken as 0.9 s. (The first run then took 3.3 s against
-// 2.15 s estimated without this term; the run with new maps in a warm worker
-// 2.6 s against 2.2 s: the rest is the load.)
-export const WARM_UP_FIRST_RUN_S = 0.9;
+// Measured with scripts/warmup-timing.ts --new-browser (9 fresh pages, each in
+// a newly started headless Chromium, production build, 2 shared cores): the
+// demo's first run in the page against a run in the same, now warm worker with
+// as many new sky maps to build (the demo's frequencies times 10^(2/20)), each
+// less its estimate. On 2026-12-03 at load 6-7 (with the plan-speed changes of
+// that morning): median 0.51 s (-0.24 to 0.99 s); in Node (runPlan, the same
+// two runs in one process, CPU time) 0.68, 0.63 and 0.51 s. Before those
+// changes, at load 9: 0.71 s in Chromium, 0.76-1.16 s CPU in Node. Taken as
+// 0.6 s. (In the later session the first run took 2.65 s against 2.15 s
+// estimated without this term; the run with new maps in a warm worker 2.23 s
+// against 2.17 s.)
+export const WARM_UP_FIRST_RUN_S = 0.6;
 
 export interface RunEstimate {
   samples: number;
