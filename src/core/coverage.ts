@@ -397,6 +397,19 @@ function checkBeam(beam: BeamProfile): void {
  * around a parent, widened by the parent's radius, serves all its children.
  */
 export function groupHits(h: HitMap, groupNside: number): { starts: Int32Array; centres: Float64Array } {
+  let byNside = groupCache.get(h.pix);
+  if (!byNside) groupCache.set(h.pix, (byNside = new Map()));
+  let g = byNside.get(groupNside);
+  if (!g) byNside.set(groupNside, (g = groupHitsOnce(h, groupNside)));
+  return g;
+}
+
+// The groups depend on a hit map's pixel list alone (never changed once made):
+// the covered sky runs once per frequency on one map (plan and survey) with
+// the same groups. Callers read them and never write.
+const groupCache = new WeakMap<Float64Array, Map<number, { starts: Int32Array; centres: Float64Array }>>();
+
+function groupHitsOnce(h: HitMap, groupNside: number): { starts: Int32Array; centres: Float64Array } {
   const div = (h.nside / groupNside) ** 2;
   const n = h.pix.length;
   const starts: number[] = [];
@@ -555,7 +568,10 @@ export const COVER_GROUP_PIXELS = 2.5;
  * (coveredPath.ts), so the mask is that of the exact distance. A hit map
  * without its path (none is built so today) falls back to its centroids.
  */
-export function* coveredStage(hit: HitMap, radiusRad: number, nside: number, opts: { hitPerRadius?: number } = {}): Stage<Uint8Array> {
+export function* coveredStage(
+  hit: HitMap, radiusRad: number, nside: number,
+  opts: { hitPerRadius?: number; knownCovered?: Uint8Array } = {},
+): Stage<Uint8Array> {
   checkOutputNside(nside);
   if (!(radiusRad > 0)) throw new RangeError(`coverage radius must be > 0, got ${radiusRad}`);
   // the finest hit map by default: the fewer output pixels left for the exact step
@@ -563,7 +579,13 @@ export function* coveredStage(hit: HitMap, radiusRad: number, nside: number, opt
   const h = degradeHitMap(hit, level);
   const path = h.path;
   const scratch = { buf: new Float64Array(0) };
+  // pixels already known to lie within the radius (e.g. covered at a smaller radius on the
+  // same path, which the caller vouches for) are skipped by every pass below
   const mask = new Uint8Array(nside2npix(nside));
+  if (opts.knownCovered) {
+    if (opts.knownCovered.length !== mask.length) throw new RangeError(`knownCovered has ${opts.knownCovered.length} pixels, the map ${mask.length}`);
+    mask.set(opts.knownCovered);
+  }
   // with the path: hit pixel centres (the path passed within rho of each); without: centroids
   const rho = maxPixradRad(h.nside) * 1.001;
   const reach = path ? rho + path.maxStepRad : 0;
@@ -720,7 +742,7 @@ export function exposureMap(hit: HitMap, beam: BeamProfile, nside: number, opts:
   return drain(exposureStage(hit, beam, nside, opts));
 }
 
-export function coveredMask(hit: HitMap, radiusRad: number, nside: number, opts: { hitPerRadius?: number } = {}): Uint8Array {
+export function coveredMask(hit: HitMap, radiusRad: number, nside: number, opts: { hitPerRadius?: number; knownCovered?: Uint8Array } = {}): Uint8Array {
   return drain(coveredStage(hit, radiusRad, nside, opts));
 }
 

@@ -46,20 +46,29 @@
 //    centre; its grouping of about 2.5 output pixels was measured 2.5x faster
 //    at nside 128 than grouping by the radius).
 //  - The antenna temperature is computed at the usable samples only (the
-//    median and the noise read no others); a beam symmetric about the zenith
-//    needs only the zenith's angles (zenithOnlyFrames), the very ones the
-//    plan's frames give.
+//    median and the noise read no others), gathered into one block per
+//    frequency; a beam symmetric about the zenith needs only the zenith's
+//    angles in the grids' axes, the very ones the plan's frames give
+//    (antennaTempStage's arithmetic, so the same float32 values). Medians
+//    are taken by selection (median.ts), the same values a sort gives.
 //  - The median noise (radiometer equation with T_sys = T_ant + receiver,
 //    sky/noise.ts) needs the exposure of the track with each sample's hours
 //    weighted by (T_ref / T_sys)^2 at the covered pixels: a second hit map of
 //    those weights (with a uniform sky the weights are the hours and the first
-//    hit map serves). The survey evaluates it with the plan's arithmetic
+//    hit map serves). These weighted hit maps, one per frequency, come from
+//    one replay of the unweighted map's walk, as the plan makes them
+//    (coverage.ts reweightedHitMapsStage: the pixel of each sub-step kept by
+//    the walk). The survey evaluates it with the plan's arithmetic
 //    (hit map degraded to FWHM/6, centroids, tabulated beam, cutoff), gathered
 //    at every m-th covered pixel in RING order (m = floor(covered /
 //    NOISE_SAMPLE_PIXELS), at least 1: below 2 x NOISE_SAMPLE_PIXELS covered
 //    pixels that is every pixel and the plan's median), and takes the median
 //    of those. Measured: within 0.21% of the plan on the benchmark's sampled
 //    sites; 0.7% with 1024 pixels, 0.14% with 4096 (hence 2048).
+//  - The covered masks nest (a pixel within the narrower radius of the path
+//    lies within the wider one), so they are computed from the narrowest beam
+//    to the widest, each stage told the narrower mask (coveredStage
+//    knownCovered) and testing only the other pixels: the same masks.
 //  - Nothing runs at a coarser resolution than the plan's: the covered sky and
 //    the noise use the scenario's map.nside, the hit map the plan's nside.
 //
@@ -86,16 +95,16 @@ import { BODIES, KM_PER_AU, siteGeometry } from './bodies';
 import { bodyNodesStage, fastPathPays, InterpolatedBody, sampleGrid, trackStage, type SampleGrid } from './ephemeris';
 import { galacticSummary, hoursSummary, usableMask } from './usable';
 import {
-  beamProfileFor, beamTable, centresOf, centroids, coveredStage, degradeHitMap, groupHits, groupNsideFor, hitMapStage, hitNsideFor, nsideForResolution,
+  beamProfileFor, beamTable, centresOf, centroids, coveredStage, degradeHitMap, groupHits, groupNsideFor, hitMapStage, reweightedHitMapsStage, hitNsideFor, nsideForResolution,
   EXPOSURE_HIT_PER_FWHM, type BeamProfile, type HitMap,
 } from './coverage';
 import { maskedMedian, SENSITIVITY_DEFAULTS, usableHoursInBand, usableHoursNearCenter } from './stats';
 import { skyModelFor, type LoadedSkyMap, type SkyModel } from './sky/model';
 import { SkyMapError } from './sky/fitsMap';
 import { parseUtcMs } from './time';
-import { antennaTempGrid, antennaTempStage, gridAxesFor, withGround, zenithOnlyFrames, type AntennaTempGrid } from './sky/antennaTemp';
+import { antennaTempGrid, antennaTempStage, gridAxesFor, withGround, type AntennaTempGrid } from './sky/antennaTemp';
 import { tAntSummary } from './sky/tAntSummary';
-import { sysWeightedTrack } from './sky/noise';
+import { selectInPlace } from './median';
 import { frequencyLimitsStage, usableAtAny, usableByFrequency } from './shielding/usableByFrequency';
 import { ICRS_TO_GAL, galDegToVec } from './frames';
 import { maxPixradRad } from './healpix';
@@ -411,10 +420,12 @@ function* siteByPlanPath(s: Scenario, halfFwhmDeg: number[]): Stage<{ track: Tra
 
 /**
  * The plan's covered mask (RING, 1 = covered), the very stage `plan` runs, so
- * the survey's covered fractions are the plan's by construction.
+ * the survey's covered fractions are the plan's by construction. `inner`: the
+ * mask of the same hit map at a radius no larger (its pixels lie within this
+ * radius of the path too, so the stage need not test them again).
  */
-export function* coveredMaskStage(hit: HitMap, radiusRad: number, nside: number): Stage<Uint8Array> {
-  return yield* coveredStage(hit, radiusRad, nside);
+export function* coveredMaskStage(hit: HitMap, radiusRad: number, nside: number, inner?: Uint8Array): Stage<Uint8Array> {
+  return yield* coveredStage(hit, radiusRad, nside, inner ? { knownCovered: inner } : {});
 }
 
 // ---------------------------------------------------------------------------
@@ -561,6 +572,103 @@ function* siteByAnyAntenna(
   };
 }
 
+/** Buffers the dish path keeps from site to site. */
+interface DishScratch {
+  /** the usable samples in order (the first `count` entries) and their zenith angles in the grids' axes */
+  idx: Int32Array;
+  th: Float64Array; ph: Float64Array; ps: Float64Array; dst: Float64Array;
+  /** per frequency: T_ant at those samples (float32, as antennaTempStage stores it) */
+  tAnt: Float32Array[];
+  values: Float64Array;
+  weights: Float64Array[];
+}
+
+function dishScratch(): DishScratch {
+  const e = new Float64Array(0);
+  return { idx: new Int32Array(0), th: e, ph: e, ps: e, dst: e, tAnt: [], values: e, weights: [] };
+}
+
+/** The usable samples of `use` into scratch.idx (sized for n samples); returns their count. */
+function usableIndices(use: Uint8Array, n: number, sc: DishScratch, nf: number): number {
+  if (sc.idx.length < n) {
+    sc.idx = new Int32Array(n);
+    sc.th = new Float64Array(n); sc.ph = new Float64Array(n); sc.ps = new Float64Array(n); sc.dst = new Float64Array(n);
+    sc.values = new Float64Array(n);
+    sc.tAnt = [];
+  }
+  for (let f = sc.tAnt.length; f < nf; f++) sc.tAnt.push(new Float32Array(sc.idx.length));
+  let m = 0;
+  for (let i = 0; i < n; i++) if (use[i]) sc.idx[m++] = i;
+  return m;
+}
+
+/**
+ * T_ant at the usable samples of a beam symmetric about the zenith, into sc.tAnt[f][0..m):
+ * antennaTempStage's own arithmetic (the zenith's angles in the grids' axes, the grid's
+ * lookup, the ground's share, float32), over the usable samples alone.
+ */
+function dishTAnt(track: Track, m: number, grids: AntennaTempGrid[][], groundK: number | undefined, sc: DishScratch): void {
+  const A = grids[0][0].axes;
+  const { idx, th, ph, ps, dst } = sc;
+  const { zx, zy, zz } = track;
+  for (let j = 0; j < m; j++) {
+    const i = idx[j];
+    const u0 = zx[i], u1 = zy[i], u2 = zz[i];
+    const x = A[0] * u0 + A[1] * u1 + A[2] * u2, y = A[3] * u0 + A[4] * u1 + A[5] * u2, z = A[6] * u0 + A[7] * u1 + A[8] * u2;
+    th[j] = Math.atan2(Math.sqrt(x * x + y * y), z);
+    const p = Math.atan2(y, x);
+    ph[j] = p < 0 ? p + 2 * Math.PI : p;
+    ps[j] = 0;
+  }
+  for (let f = 0; f < grids.length; f++) {
+    const g = grids[f][0];
+    const gf = g.quad.groundWeight / (g.quad.groundWeight + g.quad.skyWeight || 1);
+    g.atAnglesBlock(th, ph, ps, m, dst, null, 0, 0);
+    const o = sc.tAnt[f];
+    for (let j = 0; j < m; j++) o[j] = withGround(dst[j], gf, groundK);
+  }
+}
+
+/**
+ * The median T_ant over the usable samples with a value, T_ref (the median T_sys = T_ant +
+ * receiver) and each usable sample's hours weighted by (T_ref / T_sys)^2, 0 where T_sys has
+ * no value (sky/noise.ts sysWeightedTrack and tAntSummary, the very same numbers: T_sys is
+ * T_ant + receiver in the same rounding, which keeps the order, so the same two middle
+ * samples give both medians). `tAnt[j]` is sample idx[j]'s; only the usable samples' weights
+ * are written (no walk reads the others). The weights live in scratch.weights[slot] until
+ * the next call with that slot.
+ */
+function sysWeights(
+  track: Track, idx: Int32Array, m: number, tAnt: Float32Array, receiverK: number, scratch: DishScratch, slot: number,
+): { medianTAnt: number; tRefK: number; weight: Float64Array } {
+  const n = track.n;
+  if (!scratch.weights[slot] || scratch.weights[slot].length < n) scratch.weights[slot] = new Float64Array(n);
+  const v = scratch.values, w = scratch.weights[slot].subarray(0, n);
+  let c = 0;
+  for (let j = 0; j < m; j++) if (tAnt[j] === tAnt[j]) v[c++] = tAnt[j];
+  let medianTAnt = NaN, tRef = NaN;
+  if (c > 0) {
+    // the two middle values (one for an odd count), as the sorted list has them
+    let lo: number, hi: number;
+    if (c % 2 === 1) lo = hi = selectInPlace(v, c, (c - 1) / 2);
+    else {
+      hi = selectInPlace(v, c, c / 2);
+      lo = v[0];
+      for (let j = 1; j < c / 2; j++) if (v[j] > lo) lo = v[j];
+    }
+    medianTAnt = c % 2 === 1 ? lo : (lo + hi) / 2;
+    tRef = c % 2 === 1 ? lo + receiverK : (lo + receiverK + (hi + receiverK)) / 2;
+  }
+  const wh = track.weight_h;
+  for (let j = 0; j < m; j++) {
+    const i = idx[j];
+    const tSys = tAnt[j] + receiverK;
+    const r = tRef / tSys;
+    w[i] = r === r && tSys > 0 ? wh[i] * r * r : 0;
+  }
+  return { medianTAnt, tRefK: tRef, weight: w };
+}
+
 /** True when every usable sample keeps its hours under the (T_ref / T_sys)^2 weighting (a uniform sky): the hit map serves as it is. */
 function sameWeights(a: Float64Array, b: Float64Array, usable: Uint8Array): boolean {
   for (let i = 0; i < a.length; i++) if (usable[i] && a[i] !== b[i]) return false;
@@ -601,6 +709,8 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   const allBeams = dish ? s.telescope.frequencies_mhz.map((f) => beamProfileFor(f, s.telescope.aperture_m!, s.telescope.beam)) : [];
   const hitNside = dish ? hitNsideFor(Math.min(...allBeams.map((b) => b.fwhmRad))) : 0;
   const beams = which.map((m) => allBeams[m]);
+  // the asked frequencies from the narrowest beam to the widest (the covered masks nest)
+  const byRadius = dish ? beams.map((_, f) => f).sort((a, b) => beams[a].fwhmRad - beams[b].fwhmRad) : [];
   const halfFwhmDeg = which.map((m) => (dish ? allBeams[m].fwhmRad : beamWidthRad(s, mhzOf(m))) / DEG / 2);
   const sens = {
     bandwidth_mhz: s.telescope.bandwidth_mhz ?? SENSITIVITY_DEFAULTS.bandwidth_mhz,
@@ -663,6 +773,7 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
   out.total_h = (rowGrids[0].end_ms - rowGrids[0].t0_ms) / 3.6e6;
   const lean = !s.constraints.horizon_mask || s.constraints.horizon_mask.length === 0;
 
+  const scratch = dishScratch();
   let ib: InterpolatedBody | null = null;
   let lastRow: RowSamples | null = null;
   let q = 0;
@@ -736,7 +847,6 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
       out.usable_h_zenith_near_center[q] = hours.zenith_near_center;
 
       // antenna temperature of the usable samples (the plan's grids; a symmetric beam needs the zenith alone)
-      let tA: { t_ant_k: Float32Array[] } | null = null;
       // a uniform sky: the plan's grid holds the sky's constant (to rounding, below float32's), so T_ant is
       // that value at every usable sample: its median, T_ref = T_ant + receiver and weights of 1 follow
       // without a series (sysWeightedTrack would give the same: every ratio T_ref / T_sys is 1)
@@ -746,25 +856,52 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
         const q0 = row[0].quad, gf = q0.groundWeight / (q0.groundWeight + q0.skyWeight || 1);
         return anyUsable ? Math.fround(withGround(constK[f]!, gf, groundK)) : NaN;
       }) : null;
+      let mUse = 0;
       if (!tUniform) {
-        const frames = symmetric ? zenithOnlyFrames(track) : horizonFrames(track, lon);
-        tA = yield* sub(antennaTempStage(frames, tGrids, null, groundK, use), (f) => progress(0.3 * f));
+        mUse = usableIndices(use, track.n, scratch, tGrids.length);
+        if (symmetric && nSeg === 1) dishTAnt(track, mUse, tGrids, groundK, scratch);
+        else {
+          // a beam that turns with the site (a horizon mask): the whole frame per sample
+          const tA = yield* sub(antennaTempStage(horizonFrames(track, lon), tGrids, null, groundK, use), (f) => progress(0.3 * f));
+          tA.t_ant_k.forEach((t, f) => { for (let j = 0; j < mUse; j++) scratch.tAnt[f][j] = t[scratch.idx[j]]; });
+        }
       }
 
       const hs = hitMapStage(track, use, { nside: hitNside });
       let r = hs.next();
       while (!r.done) { yield progress(0.3 + 0.2 * r.value); r = hs.next(); }
       const hit = r.value;
-      for (let f = 0; f < beams.length; f++) {
+      // a varying sky: each frequency's median T_ant, its T_ref and (T_ref / T_sys)^2 weights, and the
+      // weighted hit maps of all frequencies from one replay of the walk (as the plan makes them)
+      const tMed: number[] = [], tRef: number[] = [];
+      let hitsW: (HitMap | null)[] = [];
+      if (!tUniform) {
+        const wts: Float64Array[] = [], need: number[] = [];
+        for (let f = 0; f < beams.length; f++) {
+          const sw = sysWeights(track, scratch.idx, mUse, scratch.tAnt[f], sens.receiver_temp_k, scratch, f);
+          tMed.push(sw.medianTAnt);
+          tRef.push(sw.tRefK);
+          if (wantNoise && !sameWeights(sw.weight, track.weight_h, use)) { wts.push(sw.weight); need.push(f); }
+        }
+        hitsW = beams.map(() => null);
+        if (need.length) {
+          const maps = yield* sub(reweightedHitMapsStage(hit, wts), () => progress(0.5));
+          need.forEach((f, j) => { hitsW[f] = maps[j]; });
+        }
+      }
+      // narrowest beam first: what it covers lies within every wider beam's radius of the same path
+      let inner: Uint8Array | undefined;
+      for (let j = 0; j < byRadius.length; j++) {
+        const f = byRadius[j];
         const fig = out.frequencies[f];
         fig.usable_hours_beam_in_band[q] = hours.beam_in_band[f];
         fig.usable_hours_beam_near_center[q] = hours.beam_near_center[f];
-        fig.t_ant_median_k[q] = tUniform ? tUniform[f] : tAntSummary(tA!.t_ant_k[f], use).median;
-        const lo = 0.5 + (0.5 * f) / beams.length, span = 0.5 / beams.length;
-        const cs = coveredMaskStage(hit, beams[f].fwhmRad / 2, nside);
+        fig.t_ant_median_k[q] = tUniform ? tUniform[f] : tMed[f];
+        const lo = 0.5 + (0.5 * j) / beams.length, span = 0.5 / beams.length;
+        const cs = coveredMaskStage(hit, beams[f].fwhmRad / 2, nside, inner);
         let rc = cs.next();
         while (!rc.done) { yield progress(lo + 0.5 * span * rc.value); rc = cs.next(); }
-        const covered = rc.value;
+        const covered = inner = rc.value;
         let ncov = 0;
         for (let p = 0; p < covered.length; p++) ncov += covered[p];
         fig.sky_fraction_covered[q] = ncov / covered.length;
@@ -772,16 +909,9 @@ export function* surveyStage(s: Scenario, opts: SurveyOptions): Stage<SurveyResu
           // the plan's noise with the sky (sky/noise.ts): the exposure of the track with each
           // sample's hours weighted by (T_ref / T_sys)^2; with a uniform sky the weights are the
           // hours themselves and the unweighted hit map serves
-          let hitW = hit, tRef: number;
-          if (tUniform) tRef = tUniform[f] + sens.receiver_temp_k;
-          else {
-            const wt = sysWeightedTrack(track, tA!.t_ant_k[f], sens.receiver_temp_k, use);
-            tRef = wt.tRefK;
-            if (ncov > 0 && !sameWeights(wt.track.weight_h, track.weight_h, use)) {
-              hitW = yield* sub(hitMapStage(wt.track, use, { nside: hitNside }), () => progress(lo + 0.5 * span));
-            }
-          }
-          const ns = noiseMedianStage(hitW, beams[f], covered, ncov, nside, tRef, sens.bandwidth_mhz, noiseTarget);
+          const hitW = tUniform ? hit : hitsW[f] ?? hit;
+          const tR = tUniform ? tUniform[f] + sens.receiver_temp_k : tRef[f];
+          const ns = noiseMedianStage(hitW, beams[f], covered, ncov, nside, tR, sens.bandwidth_mhz, noiseTarget);
           let rn = ns.next();
           while (!rn.done) { yield progress(lo + 0.5 * span + 0.5 * span * rn.value); rn = ns.next(); }
           fig.noise_median_k[q] = rn.value;
