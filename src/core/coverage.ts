@@ -601,40 +601,43 @@ export function* coveredStage(
   const radiusIn = Math.min(Math.PI, radiusRad + maxPixradRad(groupNside));
   const groups = starts.length - 1;
   let pk: Int32Array<ArrayBuffer> = new Int32Array(1024), pq: Int32Array<ArrayBuffer> = new Int32Array(1024), np = 0;
-  // pass 0: the pixels a hit pixel settles; pass 1 (with the path): for those
-  // still open, the hit pixels whose path pieces may reach them
-  const passes = path ? 2 : 1;
+  // One pass over each group's disc: a pixel a hit pixel settles (its centre within the radius
+  // less the hit pixel's size) is marked; with the path, an open pixel within reach of a hit
+  // pixel's path pieces becomes a pending pair for the exact step. A pixel marked by a later
+  // group may already hold pairs from earlier ones: the exact step skips marked pixels, so the
+  // mask is the one two passes (settle everything, then pair what is left) would give, with one
+  // disc query and one test per pixel and hit pixel instead of two.
   let work = 0;
-  for (let pass = 0; pass < passes; pass++) {
-    for (let g = 0; g < groups; g++) {
-      const k0 = starts[g], k1 = starts[g + 1];
-      const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], pass ? radius : radiusIn, false);
-      for (let r = 0; r < ranges.length; r += 2) {
-        const end = ranges[r + 1];
-        const [centres, base] = centresOf(nside, ranges[r], end, scratch);
-        for (let q = ranges[r]; q < end; q++) {
-          if (mask[q]) continue;
-          const o = 3 * (q - base);
-          const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
-          if (pass === 0) {
-            for (let k = k0; k < k1; k++) {
-              if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz >= cosIn) { mask[q] = 1; break; }
-            }
-          } else {
-            for (let k = k0; k < k1; k++) {
-              if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz < cosOut) continue;
-              if (np === pk.length) { pk = grow(pk); pq = grow(pq); }
-              pk[np] = k; pq[np] = q; np++;
-            }
+  for (let g = 0; g < groups; g++) {
+    const k0 = starts[g], k1 = starts[g + 1];
+    const ranges = queryDiscRingRanges(nside, gc[3 * g], gc[3 * g + 1], gc[3 * g + 2], path ? radius : radiusIn, false);
+    for (let r = 0; r < ranges.length; r += 2) {
+      const end = ranges[r + 1];
+      const [centres, base] = centresOf(nside, ranges[r], end, scratch);
+      for (let q = ranges[r]; q < end; q++) {
+        if (mask[q]) continue;
+        const o = 3 * (q - base);
+        const px = centres[o], py = centres[o + 1], pz = centres[o + 2];
+        if (!path) {
+          for (let k = k0; k < k1; k++) {
+            if (cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz >= cosIn) { mask[q] = 1; break; }
           }
+          continue;
         }
-        work += (end - ranges[r]) * (k1 - k0);
+        for (let k = k0; k < k1; k++) {
+          const d = cen[3 * k] * px + cen[3 * k + 1] * py + cen[3 * k + 2] * pz;
+          if (d < cosOut) continue;
+          if (d >= cosIn) { mask[q] = 1; break; }
+          if (np === pk.length) { pk = grow(pk); pq = grow(pq); }
+          pk[np] = k; pq[np] = q; np++;
+        }
       }
-      work += 20;
-      if (work >= 100_000) {
-        work = 0;
-        yield (pass + g / groups) / (path ? 3 : 1);
-      }
+      work += (end - ranges[r]) * (k1 - k0);
+    }
+    work += 20;
+    if (work >= 100_000) {
+      work = 0;
+      yield (g / groups) / (path ? 2 : 1);
     }
   }
   if (!path || np === 0) return mask;
@@ -647,7 +650,7 @@ export function* coveredStage(
   for (let i = 0; i < np; i++) q[fill[pk[i]]++] = pq[i];
   const pend: PendingPairs = { start, q };
   const exact = resolveByPathStage(path, h, pend, radiusRad, nside, mask);
-  for (let r = exact.next(); !r.done; r = exact.next()) yield (2 + r.value) / 3;
+  for (let r = exact.next(); !r.done; r = exact.next()) yield (1 + r.value) / 2;
   return mask;
 }
 
