@@ -33,13 +33,13 @@ function flaggedMedian(v: Float64Array, usable: Uint8Array): number {
  * Samples with no antenna temperature (a map with no data there) get no weight.
  */
 export function sysWeightedTrack(track: Track, tAnt: Float32Array, receiverK: number, usable: Uint8Array): { track: Track; tRefK: number } {
-  const tSys = new Float64Array(track.n);
-  for (let i = 0; i < track.n; i++) tSys[i] = tAnt[i] + receiverK;
-  const tRef = flaggedMedian(tSys, usable);
+  // one array: T_sys first, then each entry replaced by its weight
   const w = new Float64Array(track.n);
+  for (let i = 0; i < track.n; i++) w[i] = tAnt[i] + receiverK;
+  const tRef = flaggedMedian(w, usable);
   for (let i = 0; i < track.n; i++) {
-    const r = tRef / tSys[i];
-    w[i] = r === r && tSys[i] > 0 ? track.weight_h[i] * r * r : 0;
+    const tSys = w[i], r = tRef / tSys;
+    w[i] = r === r && tSys > 0 ? track.weight_h[i] * r * r : 0;
   }
   return { track: { ...track, weight_h: w }, tRefK: tRef };
 }
