@@ -13,6 +13,7 @@
 // max_rel_dev compares the fast maps with the naive ones on the same slice
 // (relative L1: sum|fast - naive| / sum|naive|, worst frequency).
 
+import { loadavg } from 'node:os';
 import type { PlanResult, Scenario } from '../src/core/types';
 import { drain } from '../src/core/types';
 import { computeTrack, rotationOnlyStage } from '../src/core/ephemeris';
@@ -160,6 +161,7 @@ export async function benchCoverage(log: (line: string) => void = () => {}): Pro
     };
     scenarios.push(row);
     say(`coverage ${name}`);
+    say(`  load average ${loadavg().map((x) => x.toFixed(2)).join(' ')} (1, 5, 15 min) at the end of this scenario`);
     say(`  samples ${fast.track.n} (step ${fast.track.step_min.toFixed(3)} min), usable ${fast.summary.hours.usable.toFixed(0)} h of ${fast.summary.hours.total.toFixed(0)} h`);
     say(`  fast  ${fast_s.toFixed(3)} s wall, ${fastCpu.toFixed(3)} s CPU, best of ${REPEATS}  (full span: ephemeris, usable, hit map, exposure, covered sky, noise, summary)`);
     say(`  floor ${floor_s.toFixed(3)} s wall, ${floorCpu.toFixed(3)} s CPU, best of ${REPEATS}  (body rotation only at every sample)`);
