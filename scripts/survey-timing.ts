@@ -3,7 +3,10 @@
 // pre-run estimate (src/ui/survey/surveyEstimate.ts). Not a test: nothing is
 // asserted. Used to fit the estimate's constants (issue 9 item 9).
 //
-//   npx tsx scripts/survey-timing.ts [--step 15]
+//   npx tsx scripts/survey-timing.ts [--step 15] [--sky uniform|galaxy]
+//
+// --sky sets every case's sky model (default: each case's own, the galaxy for
+// the demo); the estimate's per-sample fit is for the uniform sky.
 
 import { cpuUsage } from 'node:process';
 import { loadavg } from 'node:os';
@@ -15,6 +18,8 @@ import { estimateSurvey } from '../src/ui/survey/surveyEstimate';
 
 const args = process.argv.slice(2);
 const step = Number(args[args.indexOf('--step') + 1] || 15) || 15;
+const skyArg = args.includes('--sky') ? args[args.indexOf('--sky') + 1] : undefined;
+if (skyArg !== undefined && skyArg !== 'uniform' && skyArg !== 'galaxy') throw new Error(`--sky must be uniform or galaxy, got ${skyArg}`);
 
 const D = DEMO_SCENARIO;
 const cases: [string, Scenario][] = [
@@ -26,8 +31,9 @@ const cases: [string, Scenario][] = [
   ['Earth, one year, nside 128', { ...D, site: { body: 'earth', lat_deg: 30, lon_deg: 10 }, span: { start: '2031-03-01T00:00:00Z', end: '2032-03-01T00:00:00Z', step_min: null }, constraints: { ...D.constraints, earth_max_elev_deg: null } }],
 ];
 
-console.log(`survey timing: ${step}-degree grid, one thread, load average ${loadavg()[0].toFixed(1)}`);
-for (const [name, s] of cases) {
+console.log(`survey timing: ${step}-degree grid, one thread, ${skyArg ?? 'each case\'s own'} sky, load average ${loadavg()[0].toFixed(1)}`);
+for (const [name, s0] of cases) {
+  const s: Scenario = skyArg ? { ...s0, sky: { ...s0.sky, model: skyArg } } : s0;
   const opts = { stepDeg: step, frequenciesMhz: [s.telescope.frequencies_mhz[0]] };
   computeSurvey(s, { ...opts, sites: [0, 1, 2] }); // JIT warm-up
   const c0 = cpuUsage();

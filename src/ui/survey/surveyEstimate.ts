@@ -7,13 +7,18 @@ import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core
 //
 // Before: the number of sites times a time per site from the scenario's
 // sample count. The constants are a fit to computeSurvey in Node, one thread,
-// one frequency as the panel runs it, JIT warm, a whole 15-degree grid (288
-// sites), CPU time per site (scripts/survey-timing.ts, 2026-12-02, on this
-// project's shared 2-core machine): Moon 2.9 ms a site at 1,850 samples,
-// 8.1 ms at 22,927, 15.5 ms at 45,790 (the demo); Mars 72.6 ms at 633,169;
-// Earth 74.6 ms at 593,145. The fit gives 2.1, 8.4, 15.2, 71.1 and 72.7 ms.
-// A site's sample step is shorter on the Earth and Mars (the sky turns
-// faster), and a short step costs less per sample.
+// one frequency as the panel runs it, the uniform sky, JIT warm, a whole
+// 15-degree grid (288 sites), CPU time per site (scripts/survey-timing.ts
+// --sky uniform, 2026-12-03, on this project's shared 2-core machine at load
+// 2.4): Moon 2.6 ms a site at 1,850 samples, 9.3 ms at 22,927, 18.8 ms at
+// 45,790 (the demo); Mars 132.7 ms at 633,169; Earth 117.0 ms at 593,145. The
+// fit gives 2.2, 9.8, 18.0, 134.5 and 114.2 ms. (The fit of 2026-12-02 had
+// 72.6 and 74.6 ms for Mars and the Earth; those sites cost the same before
+// and after the survey's speed-ups of 2026-12-03, so it was stale.) A site's
+// sample step is shorter on the Earth and Mars (the sky turns faster), and a
+// short step costs less per sample. A beam much wider than the demo's costs
+// more than the fit says (2 MHz, one year: 22.5 ms against 4.7): the covered
+// sky of a wide beam has many more pixels.
 //
 // The fit is for an idle machine. In Chromium on the same machine shared with
 // other jobs (load average 8 to 17 on 2 cores, scripts/survey-browser-timing.ts,
@@ -28,13 +33,16 @@ import { surveyGrid, SURVEY_MAX_STEP_DEG, SURVEY_MIN_STEP_DEG } from '../../core
 // measured over the sites done so far and the time left.
 
 export const SURVEY_MS_PER_SITE_BASE = 1.5;
-// The fit above was timed with the uniform sky's noise. A sky that varies
-// (the galaxy model, the default, or a map) adds the antenna temperature of
-// every usable sample and a second hit map per frequency for the noise:
-// 92-98 against 47-48 ms CPU a site (216 demo sites of 3 latitude rows, one
-// thread, 4 frequencies, load 7 to 13, 2026-12-02), so about twice.
-export const SURVEY_DISH_SKY_FACTOR = 2;
-export const SURVEY_MS_PER_SITE_PER_SAMPLE: Record<Scenario['site']['body'], number> = { moon: 3.0e-4, mars: 1.1e-4, earth: 1.2e-4 };
+// A sky that varies (the galaxy model, the default, or a map) adds the antenna
+// temperature of every usable sample and a T_sys-weighted hit map per
+// frequency for the noise: 37.9 against 29.3 ms CPU a site (216 demo sites of 3
+// latitude rows, one thread, 4 frequencies, bench/survey.ts, load 3.8,
+// 2026-12-03), and 22.7 against 18.8, 3.8 against 2.6, 12.4 against 9.3 ms with
+// one frequency (the three Moon cases above, same run of the script with and
+// without --sky uniform): about 1.3 times. (Before the survey shared the
+// weighted hit maps' walk and sorted no medians it was about 2.)
+export const SURVEY_DISH_SKY_FACTOR = 1.3;
+export const SURVEY_MS_PER_SITE_PER_SAMPLE: Record<Scenario['site']['body'], number> = { moon: 3.6e-4, mars: 2.1e-4, earth: 1.9e-4 };
 
 // Any antenna but the zenith dish runs the plan's own stages at every site
 // (core/survey.ts, the general path): the track, the antenna temperature and
