@@ -37,7 +37,7 @@ export const SURVEY_MS_PER_SITE_BASE = 1.5;
 // temperature of every usable sample and a T_sys-weighted hit map per
 // frequency for the noise: 37.9 against 29.3 ms CPU a site (216 demo sites of 3
 // latitude rows, one thread, 4 frequencies, bench/survey.ts, load 3.8,
-// 2026-12-03), and 22.7 against 18.8, 3.8 against 2.6, 12.4 against 9.3 ms with
+// 2026-12-03; 62.3 against 46.9 ms in a second run at load 4.3), and 22.7 against 18.8, 3.8 against 2.6, 12.4 against 9.3 ms with
 // one frequency (the three Moon cases above, same run of the script with and
 // without --sky uniform): about 1.3 times. (Before the survey shared the
 // weighted hit maps' walk and sorted no medians it was about 2.)
