@@ -223,8 +223,11 @@ export function* reweightedHitMapsStage(hit: HitMap, weights: Float64Array[]): S
   const { zx, zy, zz, weight_h, n } = track;
   for (const w of weights) if (w.length !== n) throw new RangeError(`weights have ${w.length} entries, track has ${n}`);
   const nc = weights.length, m = pix.length;
-  // hours and direction sums per pixel of the walk's own map (a weighted map's pixels are among them)
-  const acc = weights.map(() => new Float64Array(4 * m));
+  // hours and direction sums per pixel of the walk's own map (a weighted map's pixels are among
+  // them), every channel's four side by side: one sub-step touches one place in memory
+  const stride = 4 * nc;
+  const acc = new Float64Array(stride * m);
+  const hk = new Float64Array(nc);
   const e = new Float64Array(3), v = new Float64Array(3);
   let step = 0, work = 0;
   for (let i = 0; i < n; i++) {
@@ -235,20 +238,24 @@ export function* reweightedHitMapsStage(hit: HitMap, weights: Float64Array[]): S
     const dx = e[0] - ax, dy = e[1] - ay, dz = e[2] - az;
     const k = subStepCount(Math.sqrt(dx * dx + dy * dy + dz * dz), maxStepRad);
     let any = false;
-    for (let c = 0; c < nc; c++) if (weights[c][i] > 0) any = true;
+    for (let c = 0; c < nc; c++) {
+      const w = weights[c][i];
+      // a channel with no positive weight here adds nothing (NaN marks it)
+      hk[c] = w > 0 ? w / k : NaN;
+      if (w > 0) any = true;
+    }
     if (!any) { step += k; continue; }
     for (let j = 0; j < k; j++, step++) {
       pathPoint(ax, ay, az, dx, dy, dz, (j + 0.5) / k, v);
       const x = v[0], y = v[1], z = v[2];
-      const o = 4 * (cellHit ? cellHit[step] : findSorted(pix, vec2pixNest(nside, x, y, z)));
-      for (let c = 0; c < nc; c++) {
-        const w = weights[c][i];
-        if (!(w > 0)) continue;
-        const h = w / k, a = acc[c];
-        a[o] += h;
-        a[o + 1] += h * x;
-        a[o + 2] += h * y;
-        a[o + 3] += h * z;
+      const o = stride * (cellHit ? cellHit[step] : findSorted(pix, vec2pixNest(nside, x, y, z)));
+      for (let c = 0, oc = o; c < nc; c++, oc += 4) {
+        const h = hk[c];
+        if (h !== h) continue;
+        acc[oc] += h;
+        acc[oc + 1] += h * x;
+        acc[oc + 2] += h * y;
+        acc[oc + 3] += h * z;
       }
     }
     work += k + 1;
@@ -257,21 +264,21 @@ export function* reweightedHitMapsStage(hit: HitMap, weights: Float64Array[]): S
       yield i / n;
     }
   }
-  return acc.map((a) => {
+  return weights.map((_, c) => {
     let count = 0;
-    for (let q = 0; q < m; q++) if (a[4 * q] > 0) count++;
+    for (let q = 0, o = 4 * c; q < m; q++, o += stride) if (acc[o] > 0) count++;
     const out: HitMap = {
       nside, pix: new Float64Array(count), hours: new Float64Array(count),
       sx: new Float64Array(count), sy: new Float64Array(count), sz: new Float64Array(count), totalHours: 0,
     };
-    for (let q = 0, r = 0; q < m; q++) {
-      if (!(a[4 * q] > 0)) continue;
+    for (let q = 0, r = 0, o = 4 * c; q < m; q++, o += stride) {
+      if (!(acc[o] > 0)) continue;
       out.pix[r] = pix[q];
-      out.hours[r] = a[4 * q];
-      out.sx[r] = a[4 * q + 1];
-      out.sy[r] = a[4 * q + 2];
-      out.sz[r] = a[4 * q + 3];
-      out.totalHours += a[4 * q];
+      out.hours[r] = acc[o];
+      out.sx[r] = acc[o + 1];
+      out.sy[r] = acc[o + 2];
+      out.sz[r] = acc[o + 3];
+      out.totalHours += acc[o];
       r++;
     }
     return out;
