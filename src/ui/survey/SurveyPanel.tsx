@@ -85,8 +85,8 @@ export function SurveyPanel({ survey, scenario, siteLat, siteLon, onPick }: {
   const [hoverCell, setHoverCell] = useState<number | null>(null);
   const step = checkStep(survey.stepText);
   const est = useMemo(
-    () => (scenario && step.ok ? estimateSurvey(scenario, step.step, survey.workers, survey.ratio) : null),
-    [scenario, step.ok ? step.step : NaN, survey.workers, survey.ratio], // eslint-disable-line react-hooks/exhaustive-deps
+    () => (scenario && step.ok ? estimateSurvey(scenario, step.step, survey.workers, survey.ratio, survey.mhz) : null),
+    [scenario, step.ok ? step.step : NaN, survey.workers, survey.ratio, survey.mhz], // eslint-disable-line react-hooks/exhaustive-deps
   );
   const live = survey.running ? liveRate(survey.fraction, survey.elapsedMs, survey.runSites, survey.workers) : null;
   const freqs = scenario?.telescope.frequencies_mhz ?? survey.done?.scenario.telescope.frequencies_mhz ?? [];

@@ -146,7 +146,7 @@ export function useSurvey(current: Scenario | null, skyMapsFor: (s: Scenario) =>
         setFraction(1);
         setDone({ scenario: s, stepDeg, mhz: f, run, ms, workers });
         // the next estimate starts from what this computer measured
-        const r = calibrationRatio(s, run.result.sites.length, ms, workers);
+        const r = calibrationRatio(s, run.result.sites.length, ms, workers, f);
         if (r !== null) {
           setRatio(r);
           try { browserStore()?.setItem(SURVEY_RATE_KEY, JSON.stringify({ ratio: r, at: new Date().toISOString() })); } catch { /* storage full or off: kept for this session */ }
