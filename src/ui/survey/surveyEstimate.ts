@@ -21,11 +21,11 @@ import { beamProfileFor } from '../../core/coverage';
 // 8,784 samples the time rose linearly in the disc's pixels from 8 to 4 to 2
 // MHz). The rest follows the samples. Measured (fitted), the Moon, one year,
 // nside 128: 2 MHz alone (FWHM 24.7 deg, 2,273 pixels in the disc), 8,784
-// samples, 26.7 ms (26.4); 4 MHz alone (570 pixels) 12.3 (9.2); 8 MHz alone
+// samples, 26.7 ms (26.2); 4 MHz alone (570 pixels) 12.3 (9.2); 8 MHz alone
 // (142) 6.8 (4.9); 32 MHz alone, 22,927 samples, 6.3 (6.3); the demo's four
 // frequencies surveyed at 4 MHz: one synodic month at nside 64, 1,850 samples,
 // 3.2 (3.6); one year, 22,927 samples, 9.7 (11.9); the demo, 45,790 samples,
-// 16.6 (16.3). Mars, one year, 633,169 samples, 139.0, and the Earth, 593,145
+// 16.6 (16.2). Mars, one year, 633,169 samples, 139.0, and the Earth, 593,145
 // samples, 135.8, set their k_body. All within x1.4
 // (tests/unit/survey-any.test.ts). The samples are the scenario's (its
 // narrowest beam sets the step); the beam is the frequency surveyed. Before
