@@ -1,4 +1,3 @@
-import { mkdirSync, statSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { prepareOutDir } from './outDir';

@@ -2,7 +2,6 @@
 // one CSV row per site; --shard I/N for batch runners, --jobs J for threads
 // on this machine.
 
-import { mkdirSync, statSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { readSkyMaps } from './skyMaps';
 import { parseArgs } from 'node:util';

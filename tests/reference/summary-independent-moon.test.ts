@@ -48,7 +48,7 @@
 import { describe, expect, it } from 'vitest';
 import { runPlanCli } from '../fixtures/independent/runPlanCli';
 import { join } from 'node:path';
-import { D, dot, epochAt, lonLat, moonFrame, mv, sph, siteSample, wrapDeg, earth, TT_MINUS_UTC_S, type V3 } from '../fixtures/independent/meeusMoon';
+import { D, dot, epochAt, lonLat, mv, sph, siteSample, wrapDeg, earth, TT_MINUS_UTC_S, type V3 } from '../fixtures/independent/meeusMoon';
 import { moon } from 'astronomia';
 import { readSubpoints } from '../fixtures/ephemeris/parse';
 import { spawnSync } from 'node:child_process';

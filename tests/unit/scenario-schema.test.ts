@@ -25,7 +25,6 @@ function setPath(o: Record<string, any>, path: (string | number)[], v: unknown):
   cur[path[path.length - 1]] = v;
 }
 
-interface Case { what: string; make: () => Record<string, any>; }
 
 /** A scenario with each antenna/sky/constraint block present, so their fields can be varied. */
 function rich(model: 'elliptical_gaussian' | 'dipole'): Record<string, any> {

@@ -11,7 +11,6 @@ import { feedPattern, type FeedPattern } from './models';
 import { beamFrames, frameBoresight, segmentsOf, toFrame, type Frame3, type Segment } from './pointing';
 
 const DEG = Math.PI / 180;
-const HALF_PI = Math.PI / 2;
 
 export interface BeamFigures {
   /** half-power widths in the two principal planes (degrees), larger first; 360 in a plane where the power never falls to half */

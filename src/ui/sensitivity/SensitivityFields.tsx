@@ -13,7 +13,6 @@ export function SensitivityFields({ draft, issues, onChange }: {
   onChange: (patch: Partial<Draft>) => void;
 }) {
   const bw = SCENARIO_LIMITS.bandwidth_mhz;
-  const rk = SCENARIO_LIMITS.receiver_temp_k;
   return (
     <>
       <div className="subhead" id="sens-head">Sensitivity (radiometer equation)</div>

@@ -17,7 +17,7 @@ import {
 import { cachedCoveredMasks, outlineColour, outlineColourName, outlineNside, paintOutlines } from './coverageOutline';
 import { drawCentreMarker, drawGraticuleLabels, drawOverlays, drawTargetMarkers, fontPx, haloText, OVERLAY_STYLE, type Ctx2D } from './overlays';
 import { targetPosition } from '../../core/targets/position';
-import { frameAxisNames, makeMapGeometry, type LookupCache, type MapGeometry, type SkyFrame } from './skyProjection';
+import { frameAxisNames, makeMapGeometry, type MapGeometry, type SkyFrame } from './skyProjection';
 import { kelvin, kelvinUnit } from '../format';
 import { skyTempMap, skyTempScale, skyViewNside } from './skyTemp';
 
