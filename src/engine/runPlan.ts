@@ -253,13 +253,24 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     const maps = await d.run('exposure', reweightedHitMapsStage(hits[g].hit, ks.map((k) => weighted[k].track.weight_h)), 0, 0);
     ks.forEach((k, j) => { hitsW[k] = maps[j]; });
   }
+  // covered sky: the masks of one hit map nest (a pixel within the narrower radius of the path
+  // lies within the wider one), so they run from the narrowest beam to the widest, each told the
+  // narrower mask and testing only the other pixels: the same masks (as the survey does)
+  const coveredByK: Uint8Array[] = new Array(nf);
+  const byWidth = freqsMhz.map((_, k) => k).sort((a, b) => beams[a].fwhmRad - beams[b].fwhmRad || a - b);
+  for (let j = 0; j < nf; j++) {
+    const k = byWidth[j];
+    let inner: Uint8Array | undefined;
+    for (let i = j - 1; i >= 0 && !inner; i--) if (groups.index[byWidth[i]] === groups.index[k]) inner = coveredByK[byWidth[i]];
+    coveredByK[k] = await d.run('exposure', coveredStage(hits[groups.index[k]].hit, beams[k].fwhmRad / 2, nside, inner ? { knownCovered: inner } : {}), (0.2 * j) / nf, (0.2 * (j + 1)) / nf);
+  }
   for (let k = 0; k < nf; k++) {
-    const lo = k / nf, mid = (k + 0.8) / nf, hi = (k + 1) / nf;
+    const lo = 0.2 + (0.8 * k) / nf, hi = 0.2 + (0.8 * (k + 1)) / nf;
     const hit = hits[groups.index[k]].hit;
     const usableK = usableByFreq[k];
     // the exposure, and the noise's weighted exposure in the same pass
-    const [map, mapW] = await d.run('exposure', exposurePairStage(hit, hitsW[k], beams[k], nside), lo, mid);
-    const covered = await d.run('exposure', coveredStage(hit, beams[k].fwhmRad / 2, nside), mid, hi);
+    const [map, mapW] = await d.run('exposure', exposurePairStage(hit, hitsW[k], beams[k], nside), lo, hi);
+    const covered = coveredByK[k];
     maps.push(map);
     coveredMasks.push(covered);
     const mhz = s.telescope.frequencies_mhz[k];
