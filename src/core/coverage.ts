@@ -21,7 +21,7 @@ import { drain } from './types';
 import type { BeamModel } from './types';
 import { makeBeam } from './beam';
 import { findSorted, segmentEnd, subStepCount, pathPoint } from './coveragePath';
-import { resolveByPathStage, type PendingPairs } from './coveredPath';
+import { resolveByPathStage, resolveManyByPathStage, type PendingPairs } from './coveredPath';
 import { maxPixradRad, nside2npix, nside2resolRad, pix2vecNest, pix2vecNestInto, pix2vecRingInto, queryDiscRingRanges, pixelCentersRing, vec2pixNest } from './healpix';
 
 export const MAX_HIT_NSIDE = 8192;
@@ -599,6 +599,51 @@ export function* coveredStage(
   hit: HitMap, radiusRad: number, nside: number,
   opts: { hitPerRadius?: number; knownCovered?: Uint8Array } = {},
 ): Stage<Uint8Array> {
+  const first = coveredFirstPass(hit, radiusRad, nside, opts);
+  let r = first.next();
+  while (!r.done) { yield r.value / (hit.path ? 2 : 1); r = first.next(); }
+  const { mask, pend, h } = r.value;
+  if (!pend) return mask;
+  const exact = resolveByPathStage(h.path!, h, pend, radiusRad, nside, mask);
+  for (let e = exact.next(); !e.done; e = exact.next()) yield (1 + e.value) / 2;
+  return mask;
+}
+
+/**
+ * coveredStage for several radii on one hit map (its own level, the finest):
+ * the first passes from the smallest radius to the largest, each seeded with
+ * the smaller radius's settled pixels (a pixel within the smaller radius of
+ * the path lies within the larger), then one walk of the path for every
+ * radius's exact step. Each mask is the one coveredStage gives alone.
+ */
+export function* coveredMasksStage(hit: HitMap, radiiRad: number[], nside: number): Stage<Uint8Array[]> {
+  const order = radiiRad.map((_, k) => k).sort((a, b) => radiiRad[a] - radiiRad[b] || a - b);
+  const masks: Uint8Array[] = new Array(radiiRad.length);
+  const jobs: { pend: PendingPairs; radiusRad: number; mask: Uint8Array }[] = [];
+  let h: HitMap | null = null;
+  let known: Uint8Array | undefined;
+  for (let j = 0; j < order.length; j++) {
+    const k = order[j];
+    const first = coveredFirstPass(hit, radiiRad[k], nside, known ? { knownCovered: known } : {});
+    let r = first.next();
+    while (!r.done) { yield (j + r.value) / (2 * order.length); r = first.next(); }
+    masks[k] = r.value.mask;
+    h = r.value.h;
+    if (r.value.pend) jobs.push({ pend: r.value.pend, radiusRad: radiiRad[k], mask: r.value.mask });
+    known = r.value.mask;
+  }
+  if (h && jobs.length) {
+    const exact = resolveManyByPathStage(h.path!, h, jobs, nside);
+    for (let e = exact.next(); !e.done; e = exact.next()) yield (1 + e.value) / 2;
+  }
+  return masks;
+}
+
+/** coveredStage's first pass: the mask of the pixels a hit pixel settles, and the pending pairs for the exact step (null: none). */
+function* coveredFirstPass(
+  hit: HitMap, radiusRad: number, nside: number,
+  opts: { hitPerRadius?: number; knownCovered?: Uint8Array },
+): Generator<number, { mask: Uint8Array; pend: PendingPairs | null; h: HitMap }, void> {
   checkOutputNside(nside);
   if (!(radiusRad > 0)) throw new RangeError(`coverage radius must be > 0, got ${radiusRad}`);
   // the finest hit map by default: the fewer output pixels left for the exact step
@@ -664,10 +709,10 @@ export function* coveredStage(
     work += 20;
     if (work >= 100_000) {
       work = 0;
-      yield (g / groups) / (path ? 2 : 1);
+      yield g / groups;
     }
   }
-  if (!path || np === 0) return mask;
+  if (!path || np === 0) return { mask, pend: null, h };
   // the pending pairs, grouped by hit pixel
   const start = new Int32Array(h.pix.length + 1);
   for (let i = 0; i < np; i++) start[pk[i] + 1]++;
@@ -676,9 +721,7 @@ export function* coveredStage(
   const fill = start.slice(0, h.pix.length);
   for (let i = 0; i < np; i++) q[fill[pk[i]]++] = pq[i];
   const pend: PendingPairs = { start, q };
-  const exact = resolveByPathStage(path, h, pend, radiusRad, nside, mask);
-  for (let r = exact.next(); !r.done; r = exact.next()) yield (1 + r.value) / 2;
-  return mask;
+  return { mask, pend, h };
 }
 
 function grow(a: Int32Array<ArrayBuffer>): Int32Array<ArrayBuffer> {

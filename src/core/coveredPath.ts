@@ -49,11 +49,23 @@ export function nearArc(
 export function* resolveByPathStage(
   path: HitPath, h: HitMap, pend: PendingPairs, radiusRad: number, nside: number, mask: Uint8Array,
 ): Stage<void> {
+  yield* resolveManyByPathStage(path, h, [{ pend, radiusRad, mask }], nside);
+}
+
+/**
+ * resolveByPathStage for several radii on one path and hit map in one walk:
+ * each job's pairs are tested against the same pieces as its own walk would
+ * test them, so each mask is the one its own walk gives.
+ */
+export function* resolveManyByPathStage(
+  path: HitPath, h: HitMap, jobs: { pend: PendingPairs; radiusRad: number; mask: Uint8Array }[], nside: number,
+): Stage<void> {
   const { track, usable } = path;
   const { zx, zy, zz, weight_h, n } = track;
   const div = (path.nside / h.nside) ** 2;
-  const cosR = Math.cos(radiusRad);
-  const sinR = radiusRad >= Math.PI / 2 ? 2 : Math.sin(radiusRad);
+  const nj = jobs.length;
+  const cosRs = jobs.map((jb) => Math.cos(jb.radiusRad));
+  const sinRs = jobs.map((jb) => (jb.radiusRad >= Math.PI / 2 ? 2 : Math.sin(jb.radiusRad)));
   const table = nside <= TABLE_MAX_NSIDE ? pixelCentersRing(nside) : null;
   const c = new Float64Array(3);
   const e = new Float64Array(3), m = new Float64Array(3);
@@ -81,21 +93,29 @@ export function* resolveByPathStage(
         kk = findSorted(h.pix, Math.floor(cell / div));
       }
       if (kk < 0) continue;
-      const s0 = pend.start[kk], s1 = pend.start[kk + 1];
-      if (s0 === s1) continue;
-      pathPoint(ax, ay, az, dx, dy, dz, j / k, a);
-      pathPoint(ax, ay, az, dx, dy, dz, (j + 1) / k, b);
-      for (let s = s0; s < s1; s++) {
-        const q = pend.q[s];
-        if (mask[q]) continue;
-        let px: number, py: number, pz: number;
-        if (table) { px = table[3 * q]; py = table[3 * q + 1]; pz = table[3 * q + 2]; } else {
-          pix2vecRingInto(nside, q, c, 0);
-          px = c[0]; py = c[1]; pz = c[2];
+      let ends = false;
+      for (let jb = 0; jb < nj; jb++) {
+        const { pend, mask } = jobs[jb];
+        const s0 = pend.start[kk], s1 = pend.start[kk + 1];
+        if (s0 === s1) continue;
+        if (!ends) {
+          pathPoint(ax, ay, az, dx, dy, dz, j / k, a);
+          pathPoint(ax, ay, az, dx, dy, dz, (j + 1) / k, b);
+          ends = true;
         }
-        if (nearArc(px, py, pz, a, b, cosR, sinR)) mask[q] = 1;
+        const cosR = cosRs[jb], sinR = sinRs[jb];
+        for (let s = s0; s < s1; s++) {
+          const q = pend.q[s];
+          if (mask[q]) continue;
+          let px: number, py: number, pz: number;
+          if (table) { px = table[3 * q]; py = table[3 * q + 1]; pz = table[3 * q + 2]; } else {
+            pix2vecRingInto(nside, q, c, 0);
+            px = c[0]; py = c[1]; pz = c[2];
+          }
+          if (nearArc(px, py, pz, a, b, cosR, sinR)) mask[q] = 1;
+        }
+        work += s1 - s0;
       }
-      work += s1 - s0;
     }
     work += k;
     if (work >= 100_000) {

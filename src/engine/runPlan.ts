@@ -15,7 +15,7 @@ import { parseScenario, ScenarioError } from '../core/scenario';
 import { trackStage } from '../core/ephemeris';
 import { galacticSummary, hoursSummary, zenithSummary } from '../core/usable';
 import { distinctMasks, frequencyLimitsStage, ionosphereNote, usableAtAny, usableByFrequency, usableHoursAt, type FrequencyLimits } from '../core/shielding/usableByFrequency';
-import { beamProfileFor, coveredStage, exposurePairStage, hitMapStage, hitNsideFor, reweightedHitMapsStage, type HitMap } from '../core/coverage';
+import { beamProfileFor, coveredMasksStage, exposurePairStage, hitMapStage, hitNsideFor, reweightedHitMapsStage, type HitMap } from '../core/coverage';
 import { frequencySummary, NOISE_ESTIMATOR, noiseWithSky, SENSITIVITY_DEFAULTS, skyModelNote } from '../core/stats';
 import { sysWeightedTrack } from '../core/sky/noise';
 import { parseUtcMs, stepMin } from '../core/time';
@@ -253,16 +253,14 @@ export async function runPlan(input: Scenario, opts: RunOptions = {}): Promise<P
     const maps = await d.run('exposure', reweightedHitMapsStage(hits[g].hit, ks.map((k) => weighted[k].track.weight_h)), 0, 0);
     ks.forEach((k, j) => { hitsW[k] = maps[j]; });
   }
-  // covered sky: the masks of one hit map nest (a pixel within the narrower radius of the path
-  // lies within the wider one), so they run from the narrowest beam to the widest, each told the
-  // narrower mask and testing only the other pixels: the same masks (as the survey does)
+  // covered sky: per hit map, every frequency's mask in one stage (the first passes from the
+  // narrowest beam to the widest, each seeded with the narrower one, then one walk of the path
+  // for all exact steps): the same masks as one stage per frequency
   const coveredByK: Uint8Array[] = new Array(nf);
-  const byWidth = freqsMhz.map((_, k) => k).sort((a, b) => beams[a].fwhmRad - beams[b].fwhmRad || a - b);
-  for (let j = 0; j < nf; j++) {
-    const k = byWidth[j];
-    let inner: Uint8Array | undefined;
-    for (let i = j - 1; i >= 0 && !inner; i--) if (groups.index[byWidth[i]] === groups.index[k]) inner = coveredByK[byWidth[i]];
-    coveredByK[k] = await d.run('exposure', coveredStage(hits[groups.index[k]].hit, beams[k].fwhmRad / 2, nside, inner ? { knownCovered: inner } : {}), (0.2 * j) / nf, (0.2 * (j + 1)) / nf);
+  for (let g = 0; g < hits.length; g++) {
+    const ks = freqsMhz.map((_, k) => k).filter((k) => groups.index[k] === g);
+    const masks = await d.run('exposure', coveredMasksStage(hits[g].hit, ks.map((k) => beams[k].fwhmRad / 2), nside), (0.2 * g) / hits.length, (0.2 * (g + 1)) / hits.length);
+    ks.forEach((k, j) => { coveredByK[k] = masks[j]; });
   }
   for (let k = 0; k < nf; k++) {
     const lo = 0.2 + (0.8 * k) / nf, hi = 0.2 + (0.8 * (k + 1)) / nf;
