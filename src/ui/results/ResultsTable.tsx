@@ -114,7 +114,7 @@ export function ResultsTable({ result, selected, onSelect }: { result: PlanResul
       )}
       {hasTAnt && (
         <p className="table-note" data-testid="tant-note">
-          Antenna temperature: the sky model ({skyName}) averaged over the beam as it drifts, over usable time.
+          Antenna temperature: the sky model, {skyName}, averaged over the beam as it drifts, over usable time.
           {result.t_ant?.ground_included && result.scenario.sky?.ground_temp_k !== undefined &&
             ` The beam's share below the horizon or the mask sees the ground at ${kelvin(result.scenario.sky.ground_temp_k, 4)}.`}
           {groundLeft.length > 0 && (
